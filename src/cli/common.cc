@@ -1,0 +1,63 @@
+// SPDX-License-Identifier: MIT
+#include "cli/common.h"
+
+#include <algorithm>
+#include <map>
+
+#include <fmt/format.h>
+
+#include "core/error.h"
+#include "report/table_writer.h"
+#include "species/species_reader.h"
+#include "statmech/species_thermo.h"
+
+namespace sevenfold::cli {
+
+std::vector<Species> LoadSpecies(const std::vector<std::string>& files,
+                                 const std::vector<std::string>& names) {
+  std::vector<Species> all = ReadSpeciesFiles(files);
+  if (names.empty()) return all;
+  for (const std::string& name : names) {
+    const bool found = std::any_of(all.begin(), all.end(),
+                                   [&](const Species& s) { return s.name == name; });
+    if (!found) throw Error(fmt::format("--species {}: no such species in the given files", name));
+  }
+  std::vector<Species> chosen;
+  for (Species& species : all) {
+    if (std::find(names.begin(), names.end(), species.name) != names.end()) {
+      chosen.push_back(std::move(species));
+    }
+  }
+  return chosen;
+}
+
+std::vector<double> TemperatureChoice::For(double low_k, double high_k) const {
+  if (!at_k.empty()) return at_k;
+  if (step_k > 0.0) return SteppedTemperatures(from_k, to_k, step_k);
+  return DefaultTableTemperatures(low_k, high_k);
+}
+
+void AddTemperatureOptions(CLI::App& command, TemperatureChoice& choice) {
+  auto* at = command.add_option("--at", choice.at_k, "Temperatures in K, comma separated")
+                 ->delimiter(',')
+                 ->check(CLI::Range(kMinTemperatureK, kMaxTemperatureK));
+  auto* from = command.add_option("--from", choice.from_k, "First temperature, K")
+                   ->check(CLI::Range(kMinTemperatureK, kMaxTemperatureK));
+  auto* to = command.add_option("--to", choice.to_k, "Last temperature, K")
+                 ->check(CLI::Range(kMinTemperatureK, kMaxTemperatureK));
+  auto* step = command.add_option("--step", choice.step_k, "Temperature step, K")
+                   ->check(CLI::PositiveNumber);
+  from->needs(to)->needs(step)->excludes(at);
+  to->needs(from);
+  step->needs(from);
+}
+
+void AddFormatOption(CLI::App& command, TableFormat& format) {
+  const std::map<std::string, TableFormat> formats = {
+      {"text", TableFormat::kText}, {"csv", TableFormat::kCsv}, {"json", TableFormat::kJson}};
+  command.add_option("--format", format, "Output format: text, csv or json")
+      ->transform(CLI::CheckedTransformer(formats))
+      ->default_str("text");
+}
+
+}  // namespace sevenfold::cli

@@ -1,0 +1,35 @@
+// SPDX-License-Identifier: MIT
+// The sevenfold command line: parses options and hands over to one subcommand. All output
+// decisions live in cli/; the library never prints.
+#include <exception>
+#include <iostream>
+
+#include <CLI/CLI.hpp>
+
+#include "cli/table_command.h"
+#include "core/error.h"
+
+int main(int argc, char** argv) {
+  CLI::App app{
+      "sevenfold: exact ideal-gas thermochemistry from molecular constants, and two-range "
+      "NASA 7-coefficient polynomials fitted to it"};
+  app.set_version_flag("--version", std::string("sevenfold ") + SEVENFOLD_VERSION);
+  app.set_help_all_flag("--help-all", "Show help for every subcommand");
+  app.require_subcommand(1);
+  int exit_status = 0;
+  sevenfold::cli::SetupTableCommand(app, exit_status);
+  try {
+    app.parse(argc, argv);
+  } catch (const CLI::ParseError& e) {
+    // Usage errors are bad input too: exit 2 like every other input error (help/version exit 0).
+    const int status = app.exit(e);
+    return status == 0 ? 0 : 2;
+  } catch (const sevenfold::Error& e) {
+    std::cerr << "error: " << e.what() << "\n";
+    return 2;
+  } catch (const std::exception& e) {
+    std::cerr << "internal error: " << e.what() << "\n";
+    return 70;
+  }
+  return exit_status;
+}

@@ -1,0 +1,163 @@
+// SPDX-License-Identifier: MIT
+#include "report/table_writer.h"
+
+#include <algorithm>
+#include <cmath>
+
+#include <fmt/format.h>
+
+#include "core/constants.h"
+#include "core/error.h"
+
+namespace sevenfold {
+
+std::string ToString(TableFormat format) {
+  switch (format) {
+    case TableFormat::kText: return "text";
+    case TableFormat::kCsv: return "csv";
+    case TableFormat::kJson: return "json";
+  }
+  return "text";
+}
+
+std::optional<TableFormat> ParseTableFormat(const std::string& text) {
+  for (TableFormat format : {TableFormat::kText, TableFormat::kCsv, TableFormat::kJson}) {
+    if (ToString(format) == text) return format;
+  }
+  return std::nullopt;
+}
+
+double GibbsFunction(const ThermoPoint& point) {
+  return point.s_j_per_mol_k - point.h_minus_h298_j_per_mol / point.t_k;
+}
+
+namespace {
+
+std::string JsonString(const std::string& text) {
+  std::string out = "\"";
+  for (const char c : text) {
+    switch (c) {
+      case '"': out += "\\\""; break;
+      case '\\': out += "\\\\"; break;
+      case '\n': out += "\\n"; break;
+      case '\t': out += "\\t"; break;
+      default:
+        if (static_cast<unsigned char>(c) < 0x20) {
+          out += fmt::format("\\u{:04x}", static_cast<int>(c));
+        } else {
+          out += c;
+        }
+    }
+  }
+  return out + "\"";
+}
+
+std::string PressureLabel(double pressure_pa) {
+  if (pressure_pa == constants::kStandardPressureBar) return "1 bar";
+  if (pressure_pa == constants::kStandardPressureAtm) return "1 atm";
+  return fmt::format("{} Pa", pressure_pa);
+}
+
+std::string FormatText(const std::vector<TableRow>& rows) {
+  std::string out;
+  std::string current;
+  for (const TableRow& row : rows) {
+    if (row.species != current || out.empty()) {
+      current = row.species;
+      if (!out.empty()) out += "\n";
+      out += fmt::format("{}  (ideal gas, standard pressure {})\n", row.species,
+                         PressureLabel(row.standard_pressure_pa));
+      out += fmt::format("{:>10} {:>10} {:>10} {:>11} {:>12} {:>12}\n", "T", "Cp", "S",
+                         "H-H298", "H", "-(G-H298)/T");
+      out += fmt::format("{:>10} {:>10} {:>10} {:>11} {:>12} {:>12}\n", "K", "J/mol/K",
+                         "J/mol/K", "kJ/mol", "kJ/mol", "J/mol/K");
+    }
+    const ThermoPoint& p = row.point;
+    out += fmt::format("{:>10.2f} {:>10.3f} {:>10.3f} {:>11.3f} {:>12.3f} {:>12.3f}\n", p.t_k,
+                       p.cp_j_per_mol_k, p.s_j_per_mol_k, p.h_minus_h298_j_per_mol / 1000.0,
+                       p.h_j_per_mol / 1000.0, GibbsFunction(p));
+  }
+  return out;
+}
+
+std::string FormatCsv(const std::vector<TableRow>& rows) {
+  std::string out = std::string(kTableCsvHeader) + "\n";
+  for (const TableRow& row : rows) {
+    const ThermoPoint& p = row.point;
+    out += fmt::format("{},{},{},{},{},{},{}\n", row.species, p.t_k, p.cp_j_per_mol_k,
+                       p.s_j_per_mol_k, p.h_minus_h298_j_per_mol / 1000.0,
+                       p.h_j_per_mol / 1000.0, GibbsFunction(p));
+  }
+  return out;
+}
+
+std::string FormatJson(const std::vector<TableRow>& rows) {
+  // {"units": {...}, "species": [{"name": ..., "rows": [{"T": ..., ...}, ...]}, ...]}
+  std::string out =
+      "{\n  \"units\": {\"T\": \"K\", \"Cp\": \"J/mol/K\", \"S\": \"J/mol/K\", "
+      "\"H-H298\": \"kJ/mol\", \"H\": \"kJ/mol\", \"-(G-H298)/T\": \"J/mol/K\"},\n"
+      "  \"species\": [";
+  std::string current;
+  bool first_species = true;
+  bool first_row = true;
+  for (const TableRow& row : rows) {
+    if (first_species || row.species != current) {
+      if (!first_species) out += "\n    ]},";
+      out += fmt::format("\n    {{\"name\": {}, \"pressure_pa\": {}, \"rows\": [",
+                         JsonString(row.species), row.standard_pressure_pa);
+      current = row.species;
+      first_species = false;
+      first_row = true;
+    }
+    const ThermoPoint& p = row.point;
+    out += fmt::format(
+        "{}\n      {{\"T\": {}, \"Cp\": {}, \"S\": {}, \"H-H298\": {}, \"H\": {}, "
+        "\"-(G-H298)/T\": {}}}",
+        first_row ? "" : ",", p.t_k, p.cp_j_per_mol_k, p.s_j_per_mol_k,
+        p.h_minus_h298_j_per_mol / 1000.0, p.h_j_per_mol / 1000.0, GibbsFunction(p));
+    first_row = false;
+  }
+  if (!first_species) out += "\n    ]}";
+  out += "\n  ]\n}\n";
+  return out;
+}
+
+}  // namespace
+
+std::string FormatTable(const std::vector<TableRow>& rows, TableFormat format) {
+  switch (format) {
+    case TableFormat::kText: return FormatText(rows);
+    case TableFormat::kCsv: return FormatCsv(rows);
+    case TableFormat::kJson: return FormatJson(rows);
+  }
+  return FormatText(rows);
+}
+
+std::vector<double> DefaultTableTemperatures(double low_k, double high_k) {
+  std::vector<double> temperatures = {low_k};
+  const double reference = constants::kReferenceTemperature;
+  if (reference > low_k && reference < high_k) temperatures.push_back(reference);
+  for (double t = std::floor(low_k / 100.0) * 100.0 + 100.0; t < high_k;
+       t += (t < 2000.0 ? 100.0 : 500.0)) {
+    if (t > low_k) temperatures.push_back(t);
+  }
+  temperatures.push_back(high_k);
+  std::sort(temperatures.begin(), temperatures.end());
+  temperatures.erase(std::unique(temperatures.begin(), temperatures.end()), temperatures.end());
+  return temperatures;
+}
+
+std::vector<double> SteppedTemperatures(double from_k, double to_k, double step_k) {
+  if (!(step_k > 0.0) || !(to_k >= from_k) || !std::isfinite(from_k) || !std::isfinite(to_k)) {
+    throw Error(fmt::format("temperature range: expected --from <= --to and --step > 0 (got "
+                            "from {} K, to {} K, step {} K)",
+                            from_k, to_k, step_k));
+  }
+  const double count = std::floor((to_k - from_k) / step_k + 1e-9);
+  if (count > 1.0e6) throw Error("temperature range: more than a million temperatures requested");
+  std::vector<double> temperatures;
+  for (int i = 0; i <= static_cast<int>(count); ++i) temperatures.push_back(from_k + i * step_k);
+  return temperatures;
+}
+
+}  // namespace sevenfold

@@ -1,0 +1,44 @@
+// SPDX-License-Identifier: MIT
+// Thermodynamic tables as text for people, CSV and JSON for tools. Used for exact tables
+// (sevenfold table) and for tables evaluated from fitted entries (sevenfold eval), so the two
+// can be compared with ordinary diff tools.
+#pragma once
+
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "statmech/species_thermo.h"
+
+namespace sevenfold {
+
+enum class TableFormat { kText, kCsv, kJson };
+std::string ToString(TableFormat format);
+std::optional<TableFormat> ParseTableFormat(const std::string& text);
+
+struct TableRow {
+  std::string species;
+  double standard_pressure_pa = 1.0e5;  // the pressure the entropy refers to
+  ThermoPoint point;
+};
+
+// The CSV header, fixed: species,T/K,Cp/(J/mol/K),S/(J/mol/K),H-H298/(kJ/mol),H/(kJ/mol),
+// -(G-H298)/T/(J/mol/K). CSV and JSON numbers are in shortest round-trip form.
+inline constexpr const char* kTableCsvHeader =
+    "species,T/K,Cp/(J/mol/K),S/(J/mol/K),H-H298/(kJ/mol),H/(kJ/mol),-(G-H298)/T/(J/mol/K)";
+
+// -(G - H298)/T = S - (H - H298)/T, J/(mol K): the Gibbs-energy function of the tables.
+double GibbsFunction(const ThermoPoint& point);
+
+// Formats rows (grouped by species in the given order). Text and JSON state each species'
+// standard pressure; the CSV header is fixed, so CSV users take it from the species file.
+std::string FormatTable(const std::vector<TableRow>& rows, TableFormat format);
+
+// The default temperatures of a table over [low_k, high_k]: both ends, 298.15 K when inside, and
+// round temperatures in between (every 100 K up to 2000 K, every 500 K above).
+std::vector<double> DefaultTableTemperatures(double low_k, double high_k);
+
+// Temperatures from_k, from_k + step_k, ..., up to to_k inclusive (within 1e-9 step).
+std::vector<double> SteppedTemperatures(double from_k, double to_k, double step_k);
+
+}  // namespace sevenfold

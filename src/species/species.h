@@ -1,0 +1,120 @@
+// SPDX-License-Identifier: MIT
+// The molecular data of one species, as read and validated from a species file.
+// Plain data in fixed units (named in each field); species_reader.h fills it.
+#pragma once
+
+#include <optional>
+#include <string>
+#include <utility>
+#include <vector>
+
+#include "core/error.h"
+
+namespace sevenfold {
+
+enum class Shape { kAtom, kLinear, kNonlinear };
+// "atom", "linear", "nonlinear"; ParseShape returns nullopt for anything else.
+std::string ToString(Shape shape);
+std::optional<Shape> ParseShape(const std::string& text);
+
+// The temperatures of a two-range fit, kelvin. mid_k empty means "auto": the fitter chooses.
+struct TemperatureRanges {
+  double low_k = 200.0;
+  std::optional<double> mid_k;
+  double high_k = 6000.0;
+};
+
+// Quality thresholds a fit must meet over each range (see docs/fitting.md).
+struct QualityThresholds {
+  double max_cp_relative = 0.005;  // max |dCp| / Cp_exact
+  double max_h_over_rt = 0.002;    // max |dH| / (R T)
+  double max_s_over_r = 0.002;     // max |dS| / R
+};
+
+struct ElectronicLevel {
+  double energy_cm1 = 0.0;
+  double degeneracy = 1.0;
+};
+
+// Dunham-type constants of a diatomic electronic state, cm^-1 (issue: rovibrational direct sum).
+struct DiatomicConstants {
+  double we_cm1 = 0.0;
+  double wexe_cm1 = 0.0;
+  double weye_cm1 = 0.0;
+  double be_cm1 = 0.0;
+  double alphae_cm1 = 0.0;
+  double gammae_cm1 = 0.0;
+  double de_cm1 = 0.0;             // centrifugal distortion D_e
+  double dissociation_cm1 = 0.0;   // D_0 measured from the v=0, J=0 level of this state
+};
+
+// One electronic state with its own diatomic constants (list form of diatomic-constants).
+struct DiatomicState {
+  double energy_cm1 = 0.0;  // T_e-like term value of the state's v=0,J=0 level above the ground's
+  double degeneracy = 1.0;
+  DiatomicConstants constants;
+};
+
+enum class SpinMixture { kEquilibrium, kNormal };
+std::string ToString(SpinMixture mixture);
+std::optional<SpinMixture> ParseSpinMixture(const std::string& text);
+
+// Nuclear-spin weights of even and odd J for a homonuclear diatomic.
+struct NuclearSpin {
+  double even_weight = 1.0;
+  double odd_weight = 1.0;
+  SpinMixture mixture = SpinMixture::kEquilibrium;
+};
+
+// A 1-D hindered internal rotor replacing one harmonic mode.
+struct Torsion {
+  double replaces_cm1 = 0.0;            // wavenumber of the vibration it replaces
+  double rotational_constant_cm1 = 0.0; // B = h / (8 pi^2 c I_red); from reduced-moment if given
+  int symmetry = 1;                     // torsional symmetry number n
+  // V(phi) = sum_k V_k / 2 (1 - cos k phi), J/mol. A plain barrier V0 is the single term k = n.
+  std::vector<std::pair<int, double>> fourier_j_per_mol;
+};
+
+struct GeometryAtom {
+  std::string element;  // symbol, D and T allowed
+  double x_angstrom = 0.0, y_angstrom = 0.0, z_angstrom = 0.0;
+};
+
+struct Species {
+  std::string name;
+  // Element symbol and count, in the order written in the file.
+  std::vector<std::pair<std::string, int>> composition;
+  int charge = 0;
+  double formation_enthalpy_j_per_mol = 0.0;  // at 298.15 K
+  Shape shape = Shape::kAtom;
+  double symmetry_number = 1.0;
+  // Linear: {B}. Nonlinear: {A, B, C} sorted A >= B >= C. cm^-1. From moments-of-inertia or
+  // geometry when those were given instead.
+  std::vector<double> rotational_constants_cm1;
+  std::vector<double> vibrations_cm1;  // harmonic wavenumbers as written, before frequency_scale
+  double frequency_scale = 1.0;
+  std::vector<ElectronicLevel> electronic_levels{ElectronicLevel{}};
+  double optical_isomers = 1.0;
+  double centrifugal_distortion_cm1 = 0.0;  // D of a linear rotor
+  TemperatureRanges temperatures;
+  double standard_pressure_pa = 1.0e5;
+  QualityThresholds thresholds;
+
+  // Optional physics beyond the rigid rotor / harmonic oscillator.
+  std::vector<DiatomicState> diatomic_states;  // empty: rigid rotor + harmonic oscillator
+  std::optional<NuclearSpin> nuclear_spin;
+  std::vector<Torsion> torsions;
+  std::vector<GeometryAtom> geometry;  // empty unless given
+
+  // Where the species' block starts, and a hex SHA-256 of its canonical content (defaults
+  // merged), used as provenance to detect entries that were not regenerated after an edit.
+  SourceLocation location;
+  std::string input_digest;
+
+  // Molar mass in kg/mol from composition and charge (electron mass removed per positive charge).
+  double MolarMassKgPerMol() const;
+  // Total number of atoms.
+  int NumAtoms() const;
+};
+
+}  // namespace sevenfold

@@ -1,0 +1,1544 @@
+// SPDX-License-Identifier: MIT
+// Species files: YAML in, validated Species out. Every problem in a file is collected with its
+// location, then all are thrown together as one Error (one problem per line).
+#include "species/species_reader.h"
+
+#include <fmt/format.h>
+#include <yaml-cpp/yaml.h>
+
+#include <algorithm>
+#include <cerrno>
+#include <cmath>
+#include <cstdio>
+#include <cstring>
+#include <functional>
+#include <map>
+#include <optional>
+#include <tuple>
+#include <utility>
+
+#include "core/constants.h"
+#include "core/digest.h"
+#include "core/elements.h"
+#include "core/units.h"
+#include "species/geometry.h"
+
+namespace sevenfold {
+namespace {
+
+// More problems than this are summarised in one closing line: beyond it the list stops helping.
+constexpr std::size_t kMaxReportedProblems = 100;
+// Temperatures of the fit ranges must lie in this band, kelvin. Below 10 K hardly any gas exists
+// as an ideal gas and the polynomial form is useless; above 20000 K ionisation dominates and the
+// single-species model no longer holds (common practice).
+constexpr double kMinTemperatureK = 10.0;
+constexpr double kMaxTemperatureK = 20000.0;
+// Rotational constants given next to a geometry must agree with it within 1 %: equilibrium
+// geometries and ground-state constants differ by vibration-rotation terms of this order or less.
+constexpr double kGeometryConstantsRelativeTolerance = 0.01;
+// A torsion's `replaces` must equal a listed vibration; input written to 0.1 cm^-1 rounds by at
+// most 0.05 cm^-1.
+constexpr double kTorsionMatchToleranceCm1 = 0.05;
+// Standard pressures accepted: the two conventions, within rounding of the written value.
+constexpr double kPressureRelativeTolerance = 1.0e-9;
+
+const std::vector<std::string> kTopKeys = {"defaults", "species"};
+const std::vector<std::string> kDefaultsKeys = {"temperatures", "pressure", "fit-thresholds"};
+const std::vector<std::string> kSpeciesKeys = {"name",
+                                               "composition",
+                                               "charge",
+                                               "formation-enthalpy",
+                                               "shape",
+                                               "symmetry-number",
+                                               "rotational-constants",
+                                               "moments-of-inertia",
+                                               "geometry",
+                                               "vibrations",
+                                               "frequency-scale",
+                                               "electronic-levels",
+                                               "optical-isomers",
+                                               "centrifugal-distortion",
+                                               "temperatures",
+                                               "pressure",
+                                               "fit-thresholds",
+                                               "diatomic-constants",
+                                               "nuclear-spin",
+                                               "torsions"};
+const std::vector<std::string> kTemperatureKeys = {"low", "mid", "high"};
+const std::vector<std::string> kThresholdKeys = {"cp", "enthalpy", "entropy"};
+const std::vector<std::string> kDiatomicKeys = {
+    "we", "wexe", "weye", "Be", "alphae", "gammae", "De", "dissociation"};
+const std::vector<std::string> kDiatomicStateKeys = {
+    "energy", "degeneracy", "we", "wexe", "weye", "Be", "alphae", "gammae", "De", "dissociation"};
+const std::vector<std::string> kNuclearSpinKeys = {"even", "odd", "mixture"};
+const std::vector<std::string> kTorsionKeys = {
+    "replaces", "reduced-moment", "rotational-constant", "symmetry", "barrier", "fourier"};
+
+std::string JoinWords(const std::vector<std::string>& words) {
+  std::string text;
+  for (const std::string& word : words) {
+    if (!text.empty()) text += ", ";
+    text += word;
+  }
+  return text;
+}
+
+std::string Number(double value) { return fmt::format("{}", value); }
+
+std::string NumberList(const std::vector<double>& values, const char* format = "{}") {
+  std::string text = "[";
+  for (std::size_t i = 0; i < values.size(); ++i) {
+    if (i > 0) text += ", ";
+    text += fmt::format(fmt::runtime(format), values[i]);
+  }
+  return text + "]";
+}
+
+std::string CompositionText(const std::map<std::string, int>& counts) {
+  std::string text = "{";
+  for (const auto& [symbol, count] : counts) {
+    if (text.size() > 1) text += ", ";
+    text += symbol + ": " + std::to_string(count);
+  }
+  return text + "}";
+}
+
+// What a node holds, for "what was found" in messages.
+std::string Describe(const YAML::Node& node) {
+  if (!node.IsDefined() || node.IsNull()) return "nothing";
+  if (node.IsScalar()) {
+    std::string text = node.Scalar();
+    constexpr std::size_t kMaxEcho = 60;
+    if (text.size() > kMaxEcho) text = text.substr(0, kMaxEcho) + "...";
+    return "'" + text + "'";
+  }
+  if (node.IsSequence()) {
+    return "a list of " + std::to_string(node.size()) + (node.size() == 1 ? " item" : " items");
+  }
+  return "a map";
+}
+
+struct Problem {
+  int file_index = 0;
+  int line = 0;
+  int column = 0;
+  std::string text;
+};
+
+// Every problem found so far, across files; thrown together at the end.
+class Problems {
+ public:
+  void Add(int file_index, int line, int column, std::string text) {
+    problems_.push_back(Problem{file_index, line, column, std::move(text)});
+  }
+  std::size_t size() const { return problems_.size(); }
+
+  void ThrowIfAny() {
+    if (problems_.empty()) return;
+    std::stable_sort(problems_.begin(), problems_.end(), [](const Problem& a, const Problem& b) {
+      return std::tie(a.file_index, a.line, a.column) < std::tie(b.file_index, b.line, b.column);
+    });
+    std::string message;
+    const std::size_t shown = std::min(problems_.size(), kMaxReportedProblems);
+    for (std::size_t i = 0; i < shown; ++i) {
+      if (i > 0) message += "\n";
+      message += problems_[i].text;
+    }
+    if (problems_.size() > shown) {
+      message +=
+          "\n... and " + std::to_string(problems_.size() - shown) + " more problems not shown";
+    }
+    throw Error(message);
+  }
+
+ private:
+  std::vector<Problem> problems_;
+};
+
+// A species name and where it was written, for the duplicate check across files.
+struct NameRecord {
+  std::string name;
+  SourceLocation where;
+  int file_index = 0;
+};
+
+// A map's entries in file order, after checking every key against the allowed ones.
+struct Entry {
+  std::string key;
+  YAML::Node key_node;
+  YAML::Node value;
+};
+
+class Entries {
+ public:
+  void Add(Entry entry) { entries_.push_back(std::move(entry)); }
+  const Entry* Find(const std::string& key) const {
+    for (const Entry& entry : entries_) {
+      if (entry.key == key) return &entry;
+    }
+    return nullptr;
+  }
+
+ private:
+  std::vector<Entry> entries_;
+};
+
+// The file-level settings every species starts from.
+struct Defaults {
+  TemperatureRanges temperatures;
+  double pressure_pa = constants::kStandardPressureBar;
+  QualityThresholds thresholds;
+};
+
+// "an atom", "a linear species", "a nonlinear species".
+std::string ShapePhrase(Shape shape) {
+  return shape == Shape::kAtom ? "an atom" : "a " + ToString(shape) + " species";
+}
+
+std::string Plural(std::size_t count, const std::string& noun) {
+  return std::to_string(count) + " " + noun + (count == 1 ? "" : "s");
+}
+
+std::string ShapeCountRule(Shape shape, int num_atoms) {
+  switch (shape) {
+    case Shape::kAtom:
+      return "none for an atom";
+    case Shape::kLinear:
+      return std::to_string(3 * num_atoms - 5) + " (3N-5 for a linear species of " +
+             std::to_string(num_atoms) + " atoms)";
+    case Shape::kNonlinear:
+      return std::to_string(3 * num_atoms - 6) + " (3N-6 for a nonlinear species of " +
+             std::to_string(num_atoms) + " atoms)";
+  }
+  return "";
+}
+
+class FileParser {
+ public:
+  FileParser(const std::string& text,
+             const std::string& file_name,
+             int file_index,
+             Problems* problems)
+      : text_(text), file_name_(file_name), file_index_(file_index), problems_(problems) {}
+
+  std::vector<Species> Parse(std::vector<NameRecord>* names);
+
+ private:
+  SourceLocation Where(const YAML::Mark& mark) const {
+    if (mark.is_null()) return SourceLocation{file_name_, 0, 0};
+    return SourceLocation{file_name_, mark.line + 1, mark.column + 1};
+  }
+  SourceLocation Where(const YAML::Node& node) const { return Where(node.Mark()); }
+
+  // Records "file:line:column: <context>: <key>: <found>; expected <expected>".
+  void Fail(const YAML::Node& at,
+            const std::string& key,
+            const std::string& found,
+            const std::string& expected) {
+    FailText(at.Mark(), key, found + "; expected " + expected);
+  }
+  void FailText(const YAML::Mark& mark, const std::string& key, const std::string& text) {
+    const SourceLocation where = Where(mark);
+    std::string message = where.ToString() + ": ";
+    if (!context_.empty()) message += context_ + ": ";
+    if (!key.empty()) message += key + ": ";
+    message += text;
+    problems_->Add(file_index_, where.line, where.column, std::move(message));
+  }
+
+  std::optional<Entries> ReadEntries(const YAML::Node& map,
+                                     const std::string& key,
+                                     const std::vector<std::string>& allowed);
+  std::optional<double> ReadNumber(const YAML::Node& value,
+                                   const std::string& key,
+                                   const std::string& expected);
+  std::optional<double> ReadPositive(const YAML::Node& value,
+                                     const std::string& key,
+                                     const std::string& what);
+  std::optional<double> ReadAtLeast(const YAML::Node& value,
+                                    const std::string& key,
+                                    double minimum,
+                                    const std::string& what);
+  std::optional<int> ReadInteger(const YAML::Node& value,
+                                 const std::string& key,
+                                 const std::string& expected);
+  std::optional<std::string> ReadString(const YAML::Node& value,
+                                        const std::string& key,
+                                        const std::string& expected);
+  std::optional<double> ReadEnergy(const YAML::Node& value, const std::string& key);
+  std::optional<std::vector<double>> ReadPositiveList(const YAML::Node& value,
+                                                      const std::string& key,
+                                                      const std::string& what);
+  bool IsSequence(const YAML::Node& value, const std::string& key, const std::string& expected) {
+    if (value.IsSequence()) return true;
+    Fail(value, key, Describe(value), expected);
+    return false;
+  }
+
+  std::optional<Defaults> ReadDefaults(const YAML::Node& node);
+  bool ReadTemperatures(const YAML::Node& value, const std::string& key, TemperatureRanges* ranges);
+  bool ReadThresholds(const YAML::Node& value,
+                      const std::string& key,
+                      QualityThresholds* thresholds);
+  std::optional<double> ReadStandardPressure(const YAML::Node& value, const std::string& key);
+
+  std::optional<Species> ReadSpecies(const YAML::Node& node,
+                                     int index,
+                                     const Defaults& defaults,
+                                     std::vector<NameRecord>* names);
+  bool ReadComposition(const YAML::Node& value, Species* species);
+  void ReadRotation(const YAML::Node& node,
+                    const Entries& entries,
+                    bool composition_ok,
+                    bool shape_ok,
+                    bool has_diatomic,
+                    Species* species);
+  std::optional<std::vector<GeometryAtom>> ReadGeometry(const YAML::Node& value);
+  void ReadVibrations(const YAML::Node& node,
+                      const Entries& entries,
+                      bool composition_ok,
+                      bool shape_ok,
+                      bool has_diatomic,
+                      Species* species);
+  void ReadElectronicLevels(const YAML::Node& value, Species* species);
+  void ReadDiatomic(const Entry& entry,
+                    const Entries& entries,
+                    bool composition_ok,
+                    bool shape_ok,
+                    Species* species);
+  std::optional<DiatomicState> ReadDiatomicState(const YAML::Node& value,
+                                                 const std::string& key,
+                                                 bool list_form);
+  void ReadNuclearSpin(const Entry& entry, bool composition_ok, bool shape_ok, Species* species);
+  void ReadTorsions(const Entry& entry, bool shape_ok, bool vibrations_ok, Species* species);
+
+  const std::string& text_;
+  const std::string& file_name_;
+  int file_index_;
+  Problems* problems_;
+  std::string context_;  // "defaults", "species 'CO2'", "species #3"; empty at the top level
+  YAML::Node defaults_node_;
+};
+
+std::optional<Entries> FileParser::ReadEntries(const YAML::Node& map,
+                                               const std::string& key,
+                                               const std::vector<std::string>& allowed) {
+  if (!map.IsMap()) {
+    Fail(map, key, Describe(map), "a map with keys " + JoinWords(allowed));
+    return std::nullopt;
+  }
+  Entries entries;
+  std::vector<std::string> seen;
+  for (auto it = map.begin(); it != map.end(); ++it) {
+    const YAML::Node key_node = it->first;
+    const std::string prefix = key.empty() ? "" : key + ".";
+    if (!key_node.IsScalar()) {
+      Fail(key_node, key, Describe(key_node) + " as a key", "one of " + JoinWords(allowed));
+      continue;
+    }
+    const std::string name = key_node.Scalar();
+    if (std::find(allowed.begin(), allowed.end(), name) == allowed.end()) {
+      Fail(key_node, prefix + name, "unknown key", "one of " + JoinWords(allowed));
+      continue;
+    }
+    if (std::find(seen.begin(), seen.end(), name) != seen.end()) {
+      const Entry* first = entries.Find(name);
+      Fail(key_node,
+           prefix + name,
+           "given twice (first at " + Where(first->key_node).ToString() + ")",
+           "each key once");
+      continue;
+    }
+    seen.push_back(name);
+    entries.Add(Entry{name, key_node, it->second});
+  }
+  return entries;
+}
+
+std::optional<double> FileParser::ReadNumber(const YAML::Node& value,
+                                             const std::string& key,
+                                             const std::string& expected) {
+  if (value.IsScalar()) {
+    if (const std::optional<double> number = ParsePlainNumber(value.Scalar())) return number;
+  }
+  Fail(value, key, Describe(value), expected);
+  return std::nullopt;
+}
+
+std::optional<double> FileParser::ReadPositive(const YAML::Node& value,
+                                               const std::string& key,
+                                               const std::string& what) {
+  const std::optional<double> number = ReadNumber(value, key, "a positive " + what);
+  if (!number) return std::nullopt;
+  if (*number <= 0.0) {
+    Fail(value, key, Number(*number) + " is not positive", "a positive " + what);
+    return std::nullopt;
+  }
+  return number;
+}
+
+std::optional<double> FileParser::ReadAtLeast(const YAML::Node& value,
+                                              const std::string& key,
+                                              double minimum,
+                                              const std::string& what) {
+  const std::string expected = what + " of at least " + Number(minimum);
+  const std::optional<double> number = ReadNumber(value, key, expected);
+  if (!number) return std::nullopt;
+  if (*number < minimum) {
+    Fail(value, key, Number(*number), expected);
+    return std::nullopt;
+  }
+  return number;
+}
+
+std::optional<int> FileParser::ReadInteger(const YAML::Node& value,
+                                           const std::string& key,
+                                           const std::string& expected) {
+  // Integers beyond this are never meaningful here and would overflow int.
+  constexpr double kMaxMagnitude = 1.0e9;
+  if (value.IsScalar()) {
+    const std::optional<double> number = ParsePlainNumber(value.Scalar());
+    if (number && std::floor(*number) == *number && std::fabs(*number) < kMaxMagnitude) {
+      return static_cast<int>(*number);
+    }
+  }
+  Fail(value, key, Describe(value), expected);
+  return std::nullopt;
+}
+
+std::optional<std::string> FileParser::ReadString(const YAML::Node& value,
+                                                  const std::string& key,
+                                                  const std::string& expected) {
+  if (value.IsScalar()) return value.Scalar();
+  Fail(value, key, Describe(value), expected);
+  return std::nullopt;
+}
+
+std::optional<double> FileParser::ReadEnergy(const YAML::Node& value, const std::string& key) {
+  if (!value.IsScalar()) {
+    Fail(value,
+         key,
+         Describe(value),
+         "a molar energy such as '-110.53 kJ/mol' (kJ/mol, kcal/mol, J/mol, eV, cm^-1; a bare "
+         "number means kJ/mol)");
+    return std::nullopt;
+  }
+  std::string problem;
+  const std::optional<double> energy = TryParseEnergyJPerMol(value.Scalar(), &problem);
+  if (!energy) FailText(value.Mark(), key, problem);
+  return energy;
+}
+
+std::optional<std::vector<double>> FileParser::ReadPositiveList(const YAML::Node& value,
+                                                                const std::string& key,
+                                                                const std::string& what) {
+  if (!IsSequence(value, key, "a list of positive " + what)) return std::nullopt;
+  std::vector<double> numbers;
+  bool ok = true;
+  for (std::size_t i = 0; i < value.size(); ++i) {
+    const std::optional<double> number =
+        ReadPositive(value[i], key + "[" + std::to_string(i) + "]", what);
+    if (number) {
+      numbers.push_back(*number);
+    } else {
+      ok = false;
+    }
+  }
+  if (!ok) return std::nullopt;
+  return numbers;
+}
+
+std::optional<double> FileParser::ReadStandardPressure(const YAML::Node& value,
+                                                       const std::string& key) {
+  const std::string expected = "'1 bar' or '1 atm' (the two standard-state conventions)";
+  if (!value.IsScalar()) {
+    Fail(value, key, Describe(value), expected);
+    return std::nullopt;
+  }
+  std::string problem;
+  const std::optional<double> pressure_pa = TryParsePressurePa(value.Scalar(), &problem);
+  if (!pressure_pa) {
+    FailText(value.Mark(), key, problem);
+    return std::nullopt;
+  }
+  for (const double standard : {constants::kStandardPressureBar, constants::kStandardPressureAtm}) {
+    if (std::fabs(*pressure_pa - standard) <= kPressureRelativeTolerance * standard) {
+      return standard;
+    }
+  }
+  Fail(value, key, Describe(value) + " (" + Number(*pressure_pa) + " Pa)", expected);
+  return std::nullopt;
+}
+
+bool FileParser::ReadTemperatures(const YAML::Node& value,
+                                  const std::string& key,
+                                  TemperatureRanges* ranges) {
+  const std::size_t before = problems_->size();
+  const std::optional<Entries> entries = ReadEntries(value, key, kTemperatureKeys);
+  if (!entries) return false;
+  const std::string range_text = "a temperature in kelvin within [" + Number(kMinTemperatureK) +
+                                 ", " + Number(kMaxTemperatureK) + "]";
+  auto read_kelvin = [&](const Entry& entry) -> std::optional<double> {
+    const std::string sub_key = key + "." + entry.key;
+    const std::optional<double> t_k = ReadNumber(
+        entry.value, sub_key, entry.key == "mid" ? range_text + " or 'auto'" : range_text);
+    if (!t_k) return std::nullopt;
+    if (*t_k < kMinTemperatureK || *t_k > kMaxTemperatureK) {
+      Fail(entry.value, sub_key, Number(*t_k) + " K", range_text);
+      return std::nullopt;
+    }
+    return t_k;
+  };
+  if (const Entry* low = entries->Find("low")) {
+    if (const auto t_k = read_kelvin(*low)) ranges->low_k = *t_k;
+  }
+  if (const Entry* high = entries->Find("high")) {
+    if (const auto t_k = read_kelvin(*high)) ranges->high_k = *t_k;
+  }
+  if (const Entry* mid = entries->Find("mid")) {
+    if (mid->value.IsScalar() && mid->value.Scalar() == "auto") {
+      ranges->mid_k.reset();
+    } else if (const auto t_k = read_kelvin(*mid)) {
+      ranges->mid_k = *t_k;
+    }
+  }
+  if (problems_->size() != before) return false;
+  if (ranges->low_k >= ranges->high_k) {
+    Fail(value,
+         key,
+         "low " + Number(ranges->low_k) + " K is not below high " + Number(ranges->high_k) + " K",
+         "low < high");
+    return false;
+  }
+  if (ranges->mid_k && (*ranges->mid_k <= ranges->low_k || *ranges->mid_k >= ranges->high_k)) {
+    Fail(value,
+         key,
+         "mid " + Number(*ranges->mid_k) + " K is outside (" + Number(ranges->low_k) + ", " +
+             Number(ranges->high_k) + ") K",
+         "low < mid < high, or mid: auto");
+    return false;
+  }
+  return true;
+}
+
+bool FileParser::ReadThresholds(const YAML::Node& value,
+                                const std::string& key,
+                                QualityThresholds* thresholds) {
+  const std::optional<Entries> entries = ReadEntries(value, key, kThresholdKeys);
+  if (!entries) return false;
+  bool ok = true;
+  const std::pair<const char*, double*> fields[] = {{"cp", &thresholds->max_cp_relative},
+                                                    {"enthalpy", &thresholds->max_h_over_rt},
+                                                    {"entropy", &thresholds->max_s_over_r}};
+  for (const auto& [name, field] : fields) {
+    if (const Entry* entry = entries->Find(name)) {
+      const auto threshold = ReadPositive(entry->value, key + "." + name, "dimensionless number");
+      if (threshold) {
+        *field = *threshold;
+      } else {
+        ok = false;
+      }
+    }
+  }
+  return ok;
+}
+
+std::optional<Defaults> FileParser::ReadDefaults(const YAML::Node& node) {
+  context_ = "defaults";
+  Defaults defaults;
+  const std::optional<Entries> entries = ReadEntries(node, "", kDefaultsKeys);
+  if (entries) {
+    if (const Entry* entry = entries->Find("temperatures")) {
+      ReadTemperatures(entry->value, "temperatures", &defaults.temperatures);
+    }
+    if (const Entry* entry = entries->Find("pressure")) {
+      if (const auto pressure_pa = ReadStandardPressure(entry->value, "pressure")) {
+        defaults.pressure_pa = *pressure_pa;
+      }
+    }
+    if (const Entry* entry = entries->Find("fit-thresholds")) {
+      ReadThresholds(entry->value, "fit-thresholds", &defaults.thresholds);
+    }
+  }
+  context_.clear();
+  return defaults;
+}
+
+bool FileParser::ReadComposition(const YAML::Node& value, Species* species) {
+  const std::string expected_map = "a map of element symbols to atom counts, such as {C: 1, O: 2}";
+  if (!value.IsMap()) {
+    Fail(value, "composition", Describe(value), expected_map);
+    return false;
+  }
+  if (value.size() == 0) {
+    Fail(value, "composition", "an empty map", expected_map);
+    return false;
+  }
+  bool ok = true;
+  for (auto it = value.begin(); it != value.end(); ++it) {
+    const YAML::Node key_node = it->first;
+    const std::string symbol = key_node.IsScalar() ? key_node.Scalar() : "";
+    if (!key_node.IsScalar() || !AtomicWeightGPerMol(symbol)) {
+      Fail(key_node,
+           "composition",
+           "unknown element " + Describe(key_node),
+           "one of " + JoinWords(KnownElementSymbols()));
+      ok = false;
+      continue;
+    }
+    const std::string key = "composition." + symbol;
+    const bool repeated = std::any_of(species->composition.begin(),
+                                      species->composition.end(),
+                                      [&](const auto& entry) { return entry.first == symbol; });
+    if (repeated) {
+      Fail(key_node, key, "given twice", "each element once");
+      ok = false;
+      continue;
+    }
+    const std::optional<int> count = ReadInteger(it->second, key, "a positive whole atom count");
+    if (!count) {
+      ok = false;
+    } else if (*count < 1) {
+      Fail(it->second, key, std::to_string(*count), "a positive whole atom count");
+      ok = false;
+    } else {
+      species->composition.emplace_back(symbol, *count);
+    }
+  }
+  return ok;
+}
+
+std::optional<std::vector<GeometryAtom>> FileParser::ReadGeometry(const YAML::Node& value) {
+  const std::string expected_atom = "[symbol, x, y, z] with coordinates in angstrom";
+  if (!IsSequence(value, "geometry", "a list of atoms, each " + expected_atom)) {
+    return std::nullopt;
+  }
+  if (value.size() == 0) {
+    Fail(value, "geometry", "an empty list", "a list of atoms, each " + expected_atom);
+    return std::nullopt;
+  }
+  std::vector<GeometryAtom> atoms;
+  bool ok = true;
+  for (std::size_t i = 0; i < value.size(); ++i) {
+    const YAML::Node item = value[i];
+    const std::string key = "geometry[" + std::to_string(i) + "]";
+    if (!item.IsSequence() || item.size() != 4) {
+      Fail(item, key, Describe(item), expected_atom);
+      ok = false;
+      continue;
+    }
+    GeometryAtom atom;
+    const YAML::Node symbol = item[0];
+    if (!symbol.IsScalar() || !AtomicWeightGPerMol(symbol.Scalar())) {
+      Fail(symbol,
+           key,
+           "unknown element " + Describe(symbol),
+           "one of " + JoinWords(KnownElementSymbols()));
+      ok = false;
+    } else {
+      atom.element = symbol.Scalar();
+    }
+    double* coordinates[] = {&atom.x_angstrom, &atom.y_angstrom, &atom.z_angstrom};
+    for (int k = 0; k < 3; ++k) {
+      const auto coordinate = ReadNumber(item[k + 1], key, "a coordinate in angstrom");
+      if (coordinate) {
+        *coordinates[k] = *coordinate;
+      } else {
+        ok = false;
+      }
+    }
+    atoms.push_back(atom);
+  }
+  if (!ok) return std::nullopt;
+  return atoms;
+}
+
+void FileParser::ReadRotation(const YAML::Node& node,
+                              const Entries& entries,
+                              bool composition_ok,
+                              bool shape_ok,
+                              bool has_diatomic,
+                              Species* species) {
+  const Entry* constants_entry = entries.Find("rotational-constants");
+  const Entry* moments_entry = entries.Find("moments-of-inertia");
+  const Entry* geometry_entry = entries.Find("geometry");
+  if (!shape_ok) return;  // counts and consistency depend on the shape
+
+  if (species->shape == Shape::kAtom) {
+    for (const Entry* entry : {constants_entry, moments_entry, geometry_entry}) {
+      if (entry) {
+        Fail(entry->key_node,
+             entry->key,
+             "given for an atom",
+             "no rotational data for shape 'atom'");
+      }
+    }
+    return;
+  }
+  const bool linear = species->shape == Shape::kLinear;
+  const std::size_t num_expected = linear ? 1 : 3;
+  const std::string count_rule =
+      linear ? "1 value (B) for a linear species" : "3 values (A, B, C) for a nonlinear species";
+  if (!constants_entry && !moments_entry && !geometry_entry) {
+    if (has_diatomic) return;  // B comes from the diatomic constants
+    Fail(node,
+         "rotational-constants",
+         "missing (none of rotational-constants, moments-of-inertia, geometry given)",
+         "one of them for a " + ToString(species->shape) + " species");
+    return;
+  }
+  if (constants_entry && moments_entry) {
+    Fail(moments_entry->key_node,
+         "moments-of-inertia",
+         "given together with rotational-constants",
+         "only one of the two");
+    return;
+  }
+
+  // Explicit constants (or moments) win over the geometry, which is then only a cross-check.
+  std::optional<std::vector<double>> explicit_cm1;
+  const Entry* explicit_entry = constants_entry ? constants_entry : moments_entry;
+  if (explicit_entry) {
+    const bool moments = explicit_entry == moments_entry;
+    const auto values = ReadPositiveList(
+        explicit_entry->value,
+        explicit_entry->key,
+        moments ? "moment of inertia in amu*angstrom^2" : "rotational constant in cm^-1");
+    if (values && values->size() != num_expected) {
+      Fail(explicit_entry->value, explicit_entry->key, NumberList(*values), count_rule);
+    } else if (values) {
+      explicit_cm1 = *values;
+      if (moments) {
+        for (double& value : *explicit_cm1) {
+          value = constants::kRotationalConstantTimesInertia / value;
+        }
+      }
+      std::sort(explicit_cm1->begin(), explicit_cm1->end(), std::greater<double>());
+    }
+  }
+
+  std::optional<std::vector<double>> geometry_cm1;
+  if (geometry_entry) {
+    const std::optional<std::vector<GeometryAtom>> atoms = ReadGeometry(geometry_entry->value);
+    if (atoms) {
+      species->geometry = *atoms;
+      std::map<std::string, int> geometry_counts;
+      for (const GeometryAtom& atom : *atoms) ++geometry_counts[atom.element];
+      std::map<std::string, int> composition_counts(species->composition.begin(),
+                                                    species->composition.end());
+      if (composition_ok && geometry_counts != composition_counts) {
+        Fail(geometry_entry->value,
+             "geometry",
+             "atoms " + CompositionText(geometry_counts),
+             "the atoms of the composition " + CompositionText(composition_counts));
+      } else if (composition_ok) {
+        const RigidRotor rotor = AnalyzeGeometry(*atoms);
+        if (rotor.shape == Shape::kAtom) {
+          Fail(geometry_entry->value,
+               "geometry",
+               "all atoms at one point",
+               "distinct atomic positions");
+        } else if (rotor.shape != species->shape) {
+          Fail(geometry_entry->value,
+               "geometry",
+               rotor.shape == Shape::kLinear ? "collinear atoms (a linear geometry)"
+                                             : "atoms not on one line (a nonlinear geometry)",
+               "a geometry matching shape '" + ToString(species->shape) + "'");
+        } else {
+          geometry_cm1 = rotor.rotational_constants_cm1;
+        }
+      }
+    }
+  }
+
+  if (explicit_cm1 && geometry_cm1) {
+    double worst = 0.0;
+    for (std::size_t k = 0; k < explicit_cm1->size(); ++k) {
+      worst =
+          std::max(worst, std::fabs((*explicit_cm1)[k] - (*geometry_cm1)[k]) / (*geometry_cm1)[k]);
+    }
+    if (worst > kGeometryConstantsRelativeTolerance) {
+      Fail(explicit_entry->value,
+           explicit_entry->key,
+           "rotational constants " + NumberList(*explicit_cm1, "{:.6g}") +
+               " cm^-1 differ from the geometry's " + NumberList(*geometry_cm1, "{:.6g}") +
+               " cm^-1 by up to " + fmt::format("{:.3g}", 100.0 * worst) + " %",
+           "agreement within " + Number(100.0 * kGeometryConstantsRelativeTolerance) + " %");
+    }
+  }
+  if (explicit_cm1) {
+    species->rotational_constants_cm1 = *explicit_cm1;
+  } else if (geometry_cm1) {
+    species->rotational_constants_cm1 = *geometry_cm1;
+  }
+}
+
+void FileParser::ReadVibrations(const YAML::Node& node,
+                                const Entries& entries,
+                                bool composition_ok,
+                                bool shape_ok,
+                                bool has_diatomic,
+                                Species* species) {
+  const Entry* entry = entries.Find("vibrations");
+  const int num_atoms = species->NumAtoms();
+  if (!entry) {
+    if (shape_ok && composition_ok && species->shape != Shape::kAtom && !has_diatomic) {
+      Fail(node,
+           "vibrations",
+           "missing",
+           "a list of " + ShapeCountRule(species->shape, num_atoms) +
+               " harmonic wavenumbers in cm^-1");
+    }
+    return;
+  }
+  const std::string expected = "a positive wavenumber in cm^-1";
+  if (!IsSequence(entry->value, "vibrations", "a list of harmonic wavenumbers in cm^-1")) return;
+  bool ok = true;
+  std::vector<double> wavenumbers;
+  for (std::size_t i = 0; i < entry->value.size(); ++i) {
+    const YAML::Node item = entry->value[i];
+    const std::string key = "vibrations[" + std::to_string(i) + "]";
+    const std::optional<double> wavenumber = ReadNumber(item, key, expected);
+    if (!wavenumber) {
+      ok = false;
+    } else if (*wavenumber < 0.0) {
+      Fail(item,
+           key,
+           Number(*wavenumber) +
+               " cm^-1 is negative, an imaginary mode (a saddle point such as a transition "
+               "state, not a minimum)",
+           expected);
+      ok = false;
+    } else if (*wavenumber == 0.0) {
+      Fail(item, key, "0 cm^-1", expected + " (translations and rotations are not listed)");
+      ok = false;
+    } else {
+      wavenumbers.push_back(*wavenumber);
+    }
+  }
+  if (shape_ok && composition_ok) {
+    const int num_expected = species->shape == Shape::kAtom     ? 0
+                             : species->shape == Shape::kLinear ? 3 * num_atoms - 5
+                                                                : 3 * num_atoms - 6;
+    if (num_expected >= 0 && static_cast<int>(entry->value.size()) != num_expected) {
+      Fail(entry->value,
+           "vibrations",
+           Plural(entry->value.size(), "wavenumber"),
+           ShapeCountRule(species->shape, num_atoms));
+      ok = false;
+    }
+  }
+  if (ok) species->vibrations_cm1 = wavenumbers;
+}
+
+void FileParser::ReadElectronicLevels(const YAML::Node& value, Species* species) {
+  const std::string expected_level = "[energy in cm^-1, degeneracy]";
+  if (!IsSequence(value, "electronic-levels", "a list of levels, each " + expected_level)) return;
+  if (value.size() == 0) {
+    Fail(value, "electronic-levels", "an empty list", "at least the ground level [0, g]");
+    return;
+  }
+  std::vector<ElectronicLevel> levels;
+  bool ok = true;
+  for (std::size_t i = 0; i < value.size(); ++i) {
+    const YAML::Node item = value[i];
+    const std::string key = "electronic-levels[" + std::to_string(i) + "]";
+    if (!item.IsSequence() || item.size() != 2) {
+      Fail(item, key, Describe(item), expected_level);
+      ok = false;
+      continue;
+    }
+    ElectronicLevel level;
+    const auto energy = ReadNumber(item[0], key, "an energy in cm^-1");
+    const auto degeneracy = ReadNumber(item[1], key, "a positive degeneracy");
+    if (!energy || !degeneracy) {
+      ok = false;
+      continue;
+    }
+    if (i == 0 && *energy != 0.0) {
+      Fail(item[0],
+           key,
+           "ground level at " + Number(*energy) + " cm^-1",
+           "the first level at 0 cm^-1 (energies are measured from the ground level)");
+      ok = false;
+    } else if (*energy < 0.0) {
+      Fail(item[0],
+           key,
+           Number(*energy) + " cm^-1, below the ground level",
+           "an energy of at least 0 cm^-1");
+      ok = false;
+    }
+    if (*degeneracy < 0.0) {
+      Fail(item[1], key, "negative degeneracy " + Number(*degeneracy), "a positive degeneracy");
+      ok = false;
+    } else if (*degeneracy == 0.0) {
+      Fail(item[1], key, "degeneracy 0", "a positive degeneracy");
+      ok = false;
+    }
+    level.energy_cm1 = *energy;
+    level.degeneracy = *degeneracy;
+    levels.push_back(level);
+  }
+  if (ok) species->electronic_levels = levels;
+}
+
+std::optional<DiatomicState> FileParser::ReadDiatomicState(const YAML::Node& value,
+                                                           const std::string& key,
+                                                           bool list_form) {
+  const std::size_t before = problems_->size();
+  const auto entries = ReadEntries(value, key, list_form ? kDiatomicStateKeys : kDiatomicKeys);
+  if (!entries) return std::nullopt;
+  DiatomicState state;
+  DiatomicConstants& c = state.constants;
+  struct Field {
+    const char* name;
+    double* target;
+    bool required;
+    int sign;  // 1: must be > 0; 0: >= 0; -1: any finite value
+  };
+  const Field fields[] = {
+      {"we", &c.we_cm1, true, 1},
+      {"wexe", &c.wexe_cm1, false, -1},
+      {"weye", &c.weye_cm1, false, -1},
+      {"Be", &c.be_cm1, true, 1},
+      {"alphae", &c.alphae_cm1, false, -1},
+      {"gammae", &c.gammae_cm1, false, -1},
+      {"De", &c.de_cm1, false, 0},
+      {"dissociation", &c.dissociation_cm1, true, 1},
+      {"energy", &state.energy_cm1, false, 0},
+      {"degeneracy", &state.degeneracy, false, 1},
+  };
+  for (const Field& field : fields) {
+    const std::string sub_key = key + "." + field.name;
+    const Entry* entry = entries->Find(field.name);
+    if (!entry) {
+      if (field.required) {
+        Fail(value, sub_key, "missing", field.sign > 0 ? "a positive value in cm^-1" : "a value");
+      }
+      continue;
+    }
+    const std::string unit =
+        std::string(field.name) == "degeneracy" ? "degeneracy" : "value in cm^-1";
+    std::optional<double> number;
+    if (field.sign > 0) {
+      number = ReadPositive(entry->value, sub_key, unit);
+    } else if (field.sign == 0) {
+      number = ReadAtLeast(entry->value, sub_key, 0.0, "a " + unit);
+    } else {
+      number = ReadNumber(entry->value, sub_key, "a " + unit);
+    }
+    if (number) *field.target = *number;
+  }
+  if (problems_->size() != before) return std::nullopt;
+  return state;
+}
+
+void FileParser::ReadDiatomic(const Entry& entry,
+                              const Entries& entries,
+                              bool composition_ok,
+                              bool shape_ok,
+                              Species* species) {
+  if (composition_ok && shape_ok &&
+      (species->shape != Shape::kLinear || species->NumAtoms() != 2)) {
+    Fail(entry.key_node,
+         "diatomic-constants",
+         "given for " + ShapePhrase(species->shape) +
+             (species->shape == Shape::kAtom ? "" : " of " + Plural(species->NumAtoms(), "atom")),
+         "a diatomic (shape linear, 2 atoms)");
+    return;
+  }
+  if (entry.value.IsMap()) {
+    std::optional<DiatomicState> state =
+        ReadDiatomicState(entry.value, "diatomic-constants", /*list_form=*/false);
+    if (!state) return;
+    // Map form: the ground electronic state; its degeneracy is that of the ground level.
+    state->degeneracy = species->electronic_levels.front().degeneracy;
+    species->diatomic_states = {*state};
+    return;
+  }
+  if (!IsSequence(entry.value,
+                  "diatomic-constants",
+                  "a map of constants, or a list of maps, one per electronic state")) {
+    return;
+  }
+  if (entry.value.size() == 0) {
+    Fail(entry.value, "diatomic-constants", "an empty list", "at least the ground state");
+    return;
+  }
+  if (const Entry* levels = entries.Find("electronic-levels")) {
+    Fail(levels->key_node,
+         "electronic-levels",
+         "given together with the list form of diatomic-constants",
+         "the electronic states only in diatomic-constants (energy, degeneracy)");
+  }
+  std::vector<DiatomicState> states;
+  bool ok = true;
+  for (std::size_t i = 0; i < entry.value.size(); ++i) {
+    const std::string key = "diatomic-constants[" + std::to_string(i) + "]";
+    const auto state = ReadDiatomicState(entry.value[i], key, /*list_form=*/true);
+    if (!state) {
+      ok = false;
+      continue;
+    }
+    if (i == 0 && state->energy_cm1 != 0.0) {
+      Fail(entry.value[i],
+           key + ".energy",
+           "ground state at " + Number(state->energy_cm1) + " cm^-1",
+           "the first state at energy 0 cm^-1");
+      ok = false;
+    }
+    states.push_back(*state);
+  }
+  if (!ok) return;
+  species->diatomic_states = states;
+  species->electronic_levels.clear();
+  for (const DiatomicState& state : states) {
+    species->electronic_levels.push_back(ElectronicLevel{state.energy_cm1, state.degeneracy});
+  }
+}
+
+void FileParser::ReadNuclearSpin(const Entry& entry,
+                                 bool composition_ok,
+                                 bool shape_ok,
+                                 Species* species) {
+  if (composition_ok && shape_ok &&
+      (species->shape != Shape::kLinear || species->composition.size() != 1 ||
+       species->composition.front().second != 2)) {
+    Fail(entry.key_node,
+         "nuclear-spin",
+         "given for a species that is not a homonuclear diatomic",
+         "nuclear-spin only for a homonuclear diatomic such as H2 or D2");
+    return;
+  }
+  const auto entries = ReadEntries(entry.value, "nuclear-spin", kNuclearSpinKeys);
+  if (!entries) return;
+  NuclearSpin spin;
+  bool ok = true;
+  for (const auto& [name, target] :
+       {std::pair<const char*, double*>{"even", &spin.even_weight}, {"odd", &spin.odd_weight}}) {
+    const Entry* weight = entries->Find(name);
+    const std::string key = std::string("nuclear-spin.") + name;
+    if (!weight) {
+      Fail(entry.value, key, "missing", "a nuclear-spin weight of at least 0");
+      ok = false;
+      continue;
+    }
+    const auto value = ReadAtLeast(weight->value, key, 0.0, "a nuclear-spin weight");
+    if (value) {
+      *target = *value;
+    } else {
+      ok = false;
+    }
+  }
+  if (ok && spin.even_weight == 0.0 && spin.odd_weight == 0.0) {
+    Fail(entry.value, "nuclear-spin", "both weights 0", "at least one positive weight");
+    ok = false;
+  }
+  if (const Entry* mixture = entries->Find("mixture")) {
+    const auto text = ReadString(mixture->value, "nuclear-spin.mixture", "equilibrium or normal");
+    const std::optional<SpinMixture> parsed = text ? ParseSpinMixture(*text) : std::nullopt;
+    if (text && !parsed) {
+      Fail(mixture->value,
+           "nuclear-spin.mixture",
+           Describe(mixture->value),
+           "equilibrium or normal");
+    }
+    if (parsed) {
+      spin.mixture = *parsed;
+    } else {
+      ok = false;
+    }
+  }
+  if (ok) species->nuclear_spin = spin;
+}
+
+void FileParser::ReadTorsions(const Entry& entry,
+                              bool shape_ok,
+                              bool vibrations_ok,
+                              Species* species) {
+  if (shape_ok && species->shape != Shape::kNonlinear) {
+    Fail(entry.key_node,
+         "torsions",
+         "given for " + ShapePhrase(species->shape),
+         "torsions only for a nonlinear species");
+    return;
+  }
+  if (!IsSequence(entry.value, "torsions", "a list of maps with keys " + JoinWords(kTorsionKeys))) {
+    return;
+  }
+  std::vector<bool> replaced(species->vibrations_cm1.size(), false);
+  std::vector<Torsion> torsions;
+  bool all_ok = true;
+  for (std::size_t i = 0; i < entry.value.size(); ++i) {
+    const YAML::Node item = entry.value[i];
+    const std::string key = "torsions[" + std::to_string(i) + "]";
+    const std::size_t before = problems_->size();
+    const auto entries = ReadEntries(item, key, kTorsionKeys);
+    if (!entries) {
+      all_ok = false;
+      continue;
+    }
+    Torsion torsion;
+    if (const Entry* replaces = entries->Find("replaces")) {
+      const auto wavenumber =
+          ReadPositive(replaces->value, key + ".replaces", "wavenumber in cm^-1");
+      if (wavenumber) {
+        torsion.replaces_cm1 = *wavenumber;
+        if (vibrations_ok) {
+          // The closest listed vibration not yet taken by another torsion.
+          std::optional<std::size_t> match;
+          for (std::size_t k = 0; k < species->vibrations_cm1.size(); ++k) {
+            const double distance = std::fabs(species->vibrations_cm1[k] - *wavenumber);
+            if (!replaced[k] && distance <= kTorsionMatchToleranceCm1 &&
+                (!match || distance < std::fabs(species->vibrations_cm1[*match] - *wavenumber))) {
+              match = k;
+            }
+          }
+          if (match) {
+            replaced[*match] = true;
+          } else {
+            Fail(replaces->value,
+                 key + ".replaces",
+                 Number(*wavenumber) + " cm^-1 matches no vibration (or one already replaced)",
+                 "one of the wavenumbers listed in vibrations, within " +
+                     Number(kTorsionMatchToleranceCm1) + " cm^-1");
+          }
+        }
+      }
+    } else {
+      Fail(item, key + ".replaces", "missing", "the wavenumber of the vibration it replaces");
+    }
+
+    const Entry* moment = entries->Find("reduced-moment");
+    const Entry* constant = entries->Find("rotational-constant");
+    if (moment && constant) {
+      Fail(constant->key_node,
+           key + ".rotational-constant",
+           "given together with reduced-moment",
+           "only one of the two");
+    } else if (moment) {
+      const auto i_red = ReadPositive(
+          moment->value, key + ".reduced-moment", "reduced moment of inertia in amu*angstrom^2");
+      if (i_red)
+        torsion.rotational_constant_cm1 = constants::kRotationalConstantTimesInertia / *i_red;
+    } else if (constant) {
+      const auto b = ReadPositive(
+          constant->value, key + ".rotational-constant", "rotational constant in cm^-1");
+      if (b) torsion.rotational_constant_cm1 = *b;
+    } else {
+      Fail(item,
+           key + ".reduced-moment",
+           "missing (neither reduced-moment nor rotational-constant)",
+           "one of the two");
+    }
+
+    if (const Entry* symmetry = entries->Find("symmetry")) {
+      const auto n =
+          ReadInteger(symmetry->value, key + ".symmetry", "a whole number of at least 1");
+      if (n && *n < 1) {
+        Fail(
+            symmetry->value, key + ".symmetry", std::to_string(*n), "a whole number of at least 1");
+      } else if (n) {
+        torsion.symmetry = *n;
+      }
+    }
+
+    const Entry* barrier = entries->Find("barrier");
+    const Entry* fourier = entries->Find("fourier");
+    if (barrier && fourier) {
+      Fail(fourier->key_node,
+           key + ".fourier",
+           "given together with barrier",
+           "only one of the two");
+    } else if (barrier) {
+      const auto v0 = ReadEnergy(barrier->value, key + ".barrier");
+      if (v0 && *v0 < 0.0) {
+        Fail(barrier->value,
+             key + ".barrier",
+             Describe(barrier->value) + " is negative",
+             "a barrier height of at least 0");
+      } else if (v0) {
+        torsion.fourier_j_per_mol = {{torsion.symmetry, *v0}};
+      }
+    } else if (fourier) {
+      const std::string term_text = "[k, V_k] with k a whole number >= 1 and V_k a molar energy";
+      if (IsSequence(fourier->value, key + ".fourier", "a list of terms " + term_text)) {
+        for (std::size_t t = 0; t < fourier->value.size(); ++t) {
+          const YAML::Node term = fourier->value[t];
+          const std::string term_key = key + ".fourier[" + std::to_string(t) + "]";
+          if (!term.IsSequence() || term.size() != 2) {
+            Fail(term, term_key, Describe(term), term_text);
+            continue;
+          }
+          const auto k = ReadInteger(term[0], term_key, "a whole number of at least 1");
+          const auto v_k = ReadEnergy(term[1], term_key);
+          if (k && *k < 1) {
+            Fail(term[0], term_key, std::to_string(*k), "a whole number of at least 1");
+          } else if (k && v_k) {
+            const bool repeated =
+                std::any_of(torsion.fourier_j_per_mol.begin(),
+                            torsion.fourier_j_per_mol.end(),
+                            [&](const auto& existing) { return existing.first == *k; });
+            if (repeated) {
+              Fail(term[0], term_key, "k = " + std::to_string(*k) + " given twice", "each k once");
+            } else {
+              torsion.fourier_j_per_mol.emplace_back(*k, *v_k);
+            }
+          }
+        }
+      }
+    } else {
+      Fail(item,
+           key + ".barrier",
+           "missing (neither barrier nor fourier)",
+           "one of the two (barrier: 0 for a free rotor)");
+    }
+    if (problems_->size() != before) {
+      all_ok = false;
+    } else {
+      torsions.push_back(torsion);
+    }
+  }
+  if (all_ok) species->torsions = torsions;
+}
+
+std::optional<Species> FileParser::ReadSpecies(const YAML::Node& node,
+                                               int index,
+                                               const Defaults& defaults,
+                                               std::vector<NameRecord>* names) {
+  context_ = "species #" + std::to_string(index + 1);
+  // Name the species in every message, including those about its other keys, when it has a name.
+  if (node.IsMap()) {
+    for (auto it = node.begin(); it != node.end(); ++it) {
+      if (it->first.IsScalar() && it->first.Scalar() == "name" && it->second.IsScalar() &&
+          !it->second.Scalar().empty()) {
+        context_ = "species '" + it->second.Scalar() + "'";
+        break;
+      }
+    }
+  }
+  const std::size_t before = problems_->size();
+  const std::optional<Entries> entries_or = ReadEntries(node, "", kSpeciesKeys);
+  if (!entries_or) return std::nullopt;
+  const Entries& entries = *entries_or;
+
+  Species species;
+  species.location = Where(node);
+  species.temperatures = defaults.temperatures;
+  species.standard_pressure_pa = defaults.pressure_pa;
+  species.thresholds = defaults.thresholds;
+
+  if (const Entry* entry = entries.Find("name")) {
+    const auto name = ReadString(entry->value, "name", "a species name");
+    const bool has_space = name && std::any_of(name->begin(), name->end(), [](char c) {
+                             return static_cast<unsigned char>(c) <= ' ' || c == 0x7f;
+                           });
+    if (name && (name->empty() || has_space)) {
+      Fail(entry->value,
+           "name",
+           Describe(entry->value),
+           "a non-empty name without spaces or control characters");
+    } else if (name) {
+      species.name = *name;
+      context_ = "species '" + *name + "'";
+      names->push_back(NameRecord{*name, Where(entry->value), file_index_});
+    }
+  } else {
+    Fail(node, "name", "missing", "a unique species name");
+  }
+
+  bool composition_ok = false;
+  if (const Entry* entry = entries.Find("composition")) {
+    composition_ok = ReadComposition(entry->value, &species);
+  } else {
+    Fail(node, "composition", "missing", "a map of element symbols to atom counts");
+  }
+
+  if (const Entry* entry = entries.Find("charge")) {
+    if (const auto charge = ReadInteger(entry->value, "charge", "a whole number")) {
+      species.charge = *charge;
+    }
+  }
+
+  if (const Entry* entry = entries.Find("formation-enthalpy")) {
+    if (const auto h = ReadEnergy(entry->value, "formation-enthalpy")) {
+      species.formation_enthalpy_j_per_mol = *h;
+    }
+  } else {
+    Fail(node, "formation-enthalpy", "missing", "the enthalpy of formation at 298.15 K");
+  }
+
+  bool shape_ok = false;
+  const Entry* shape_entry = entries.Find("shape");
+  if (shape_entry) {
+    const auto text = ReadString(shape_entry->value, "shape", "atom, linear or nonlinear");
+    const std::optional<Shape> shape = text ? ParseShape(*text) : std::nullopt;
+    if (text && !shape) {
+      Fail(shape_entry->value, "shape", Describe(shape_entry->value), "atom, linear or nonlinear");
+    }
+    if (shape) {
+      species.shape = *shape;
+      shape_ok = true;
+    }
+  } else {
+    Fail(node, "shape", "missing", "atom, linear or nonlinear");
+  }
+  if (shape_ok && composition_ok) {
+    const int num_atoms = species.NumAtoms();
+    const int min_atoms = species.shape == Shape::kAtom     ? 1
+                          : species.shape == Shape::kLinear ? 2
+                                                            : 3;
+    if ((species.shape == Shape::kAtom && num_atoms != 1) || num_atoms < min_atoms) {
+      Fail(shape_entry->value,
+           "shape",
+           "'" + ToString(species.shape) + "' for a composition of " + Plural(num_atoms, "atom"),
+           species.shape == Shape::kAtom
+               ? "exactly 1 atom for shape 'atom'"
+               : "at least " + std::to_string(min_atoms) + " atoms for shape '" +
+                     ToString(species.shape) + "'");
+      shape_ok = false;  // the shape-dependent counts below would only repeat this problem
+    }
+  }
+
+  if (const Entry* entry = entries.Find("symmetry-number")) {
+    const auto sigma = ReadAtLeast(entry->value, "symmetry-number", 1.0, "a symmetry number");
+    if (sigma) {
+      if (shape_ok && species.shape == Shape::kAtom && *sigma != 1.0) {
+        Fail(entry->value, "symmetry-number", Number(*sigma) + " for an atom", "1 (or omit it)");
+      } else if (shape_ok && species.shape == Shape::kLinear && *sigma != 1.0 && *sigma != 2.0) {
+        Fail(entry->value,
+             "symmetry-number",
+             Number(*sigma) + " for a linear species",
+             "1 (no centre of symmetry) or 2 (centrosymmetric)");
+      } else {
+        species.symmetry_number = *sigma;
+      }
+    }
+  } else if (shape_ok && species.shape != Shape::kAtom) {
+    Fail(node,
+         "symmetry-number",
+         "missing",
+         "the external symmetry number for a " + ToString(species.shape) + " species");
+  }
+
+  const Entry* diatomic_entry = entries.Find("diatomic-constants");
+  // Electronic levels first: the map form of diatomic-constants takes the ground degeneracy.
+  const Entry* levels_entry = entries.Find("electronic-levels");
+  if (levels_entry) ReadElectronicLevels(levels_entry->value, &species);
+  if (diatomic_entry) ReadDiatomic(*diatomic_entry, entries, composition_ok, shape_ok, &species);
+  const bool has_diatomic = diatomic_entry != nullptr;
+
+  ReadRotation(node, entries, composition_ok, shape_ok, has_diatomic, &species);
+  if (has_diatomic && species.rotational_constants_cm1.empty() &&
+      !species.diatomic_states.empty()) {
+    // Rigid-rotor stand-in: B_0 = B_e - alpha_e / 2 of the ground state.
+    const DiatomicConstants& ground = species.diatomic_states.front().constants;
+    species.rotational_constants_cm1 = {ground.be_cm1 - 0.5 * ground.alphae_cm1};
+  }
+  const std::size_t before_vibrations = problems_->size();
+  ReadVibrations(node, entries, composition_ok, shape_ok, has_diatomic, &species);
+  const bool vibrations_ok = problems_->size() == before_vibrations;
+
+  if (const Entry* entry = entries.Find("frequency-scale")) {
+    if (const auto scale = ReadPositive(entry->value, "frequency-scale", "scale factor")) {
+      species.frequency_scale = *scale;
+    }
+  }
+  if (const Entry* entry = entries.Find("optical-isomers")) {
+    if (const auto isomers = ReadAtLeast(entry->value, "optical-isomers", 1.0, "a count")) {
+      species.optical_isomers = *isomers;
+    }
+  }
+  if (const Entry* entry = entries.Find("centrifugal-distortion")) {
+    if (shape_ok && species.shape != Shape::kLinear) {
+      Fail(entry->key_node,
+           "centrifugal-distortion",
+           "given for " + ShapePhrase(species.shape),
+           "centrifugal-distortion only for a linear species");
+    } else if (const auto d = ReadAtLeast(
+                   entry->value, "centrifugal-distortion", 0.0, "a distortion constant in cm^-1")) {
+      species.centrifugal_distortion_cm1 = *d;
+    }
+  }
+  if (const Entry* entry = entries.Find("temperatures")) {
+    ReadTemperatures(entry->value, "temperatures", &species.temperatures);
+  }
+  if (const Entry* entry = entries.Find("pressure")) {
+    if (const auto pressure_pa = ReadStandardPressure(entry->value, "pressure")) {
+      species.standard_pressure_pa = *pressure_pa;
+    }
+  }
+  if (const Entry* entry = entries.Find("fit-thresholds")) {
+    ReadThresholds(entry->value, "fit-thresholds", &species.thresholds);
+  }
+  if (const Entry* entry = entries.Find("nuclear-spin")) {
+    ReadNuclearSpin(*entry, composition_ok, shape_ok, &species);
+  }
+  if (const Entry* entry = entries.Find("torsions")) {
+    ReadTorsions(*entry, shape_ok, vibrations_ok && composition_ok, &species);
+  }
+
+  if (problems_->size() != before) return std::nullopt;
+  // Load-then-dump drops comments and normalises layout, so only content changes the digest.
+  std::string canonical = "sevenfold species v1\n" + YAML::Dump(node) + "\n";
+  if (defaults_node_.IsDefined()) canonical += "defaults\n" + YAML::Dump(defaults_node_) + "\n";
+  species.input_digest = Sha256Hex(canonical);
+  return species;
+}
+
+std::vector<Species> FileParser::Parse(std::vector<NameRecord>* names) {
+  YAML::Node root;
+  try {
+    root = YAML::Load(text_);
+  } catch (const YAML::Exception& error) {
+    // ParserException (and DeepRecursion, one of its kinds) carries the mark of the syntax error.
+    FailText(
+        error.mark, "", "invalid YAML (" + error.msg + "); expected a well-formed YAML document");
+    return {};
+  }
+  std::vector<Species> species_list;
+  try {
+    if (!root.IsDefined() || root.IsNull()) {
+      const SourceLocation where{file_name_, 1, 1};
+      problems_->Add(file_index_,
+                     1,
+                     1,
+                     where.ToString() +
+                         ": the file holds no data; expected a map with a "
+                         "'species' list");
+      return {};
+    }
+    const std::optional<Entries> top = ReadEntries(root, "", kTopKeys);
+    if (!top) return {};
+    Defaults defaults;
+    if (const Entry* entry = top->Find("defaults")) {
+      defaults_node_ = entry->value;
+      if (const auto read = ReadDefaults(entry->value)) defaults = *read;
+    }
+    const Entry* list = top->Find("species");
+    if (!list) {
+      Fail(root, "species", "missing", "a list of species");
+      return {};
+    }
+    if (!IsSequence(list->value, "species", "a list of species")) return {};
+    if (list->value.size() == 0) {
+      Fail(list->value, "species", "an empty list", "at least one species");
+      return {};
+    }
+    for (std::size_t i = 0; i < list->value.size(); ++i) {
+      std::optional<Species> species =
+          ReadSpecies(list->value[i], static_cast<int>(i), defaults, names);
+      if (species) species_list.push_back(std::move(*species));
+    }
+  } catch (const YAML::Exception& error) {
+    // Not expected after a successful load (types are checked before every access); kept so a
+    // yaml-cpp surprise still reports a location instead of escaping as a foreign exception.
+    FailText(error.mark,
+             "",
+             "cannot read the YAML data (" + error.msg +
+                 "); expected the schema "
+                 "of docs/species-schema.md");
+  }
+  context_.clear();
+  return species_list;
+}
+
+// Duplicate names, in the order they were written across all files.
+void CheckDuplicateNames(const std::vector<NameRecord>& names, Problems* problems) {
+  std::map<std::string, const NameRecord*> first_by_name;
+  for (const NameRecord& record : names) {
+    const auto [it, inserted] = first_by_name.emplace(record.name, &record);
+    if (inserted) continue;
+    problems->Add(record.file_index,
+                  record.where.line,
+                  record.where.column,
+                  record.where.ToString() + ": species '" + record.name + "': name: '" +
+                      record.name + "' already defined at " + it->second->where.ToString() +
+                      "; expected names unique across all species files");
+  }
+}
+
+// The whole file, refusing anything above kMaxSpeciesFileBytes. Problems are recorded, not thrown.
+std::optional<std::string> ReadFileText(const std::string& path,
+                                        int file_index,
+                                        Problems* problems) {
+  errno = 0;
+  std::FILE* file = std::fopen(path.c_str(), "rb");
+  if (file == nullptr) {
+    problems->Add(file_index,
+                  0,
+                  0,
+                  path + ": cannot open species file: " + std::strerror(errno) +
+                      "; expected a readable file");
+    return std::nullopt;
+  }
+  std::string text;
+  char buffer[1 << 16];
+  while (true) {
+    const std::size_t num_read = std::fread(buffer, 1, sizeof buffer, file);
+    text.append(buffer, num_read);
+    if (text.size() > kMaxSpeciesFileBytes) {
+      std::fclose(file);
+      problems->Add(file_index,
+                    0,
+                    0,
+                    path +
+                        ": species file is larger than 16 MiB, refused before parsing; "
+                        "expected a file of at most 16 MiB");
+      return std::nullopt;
+    }
+    if (num_read < sizeof buffer) {
+      if (std::ferror(file)) {
+        const int error_number = errno;
+        std::fclose(file);
+        problems->Add(file_index,
+                      0,
+                      0,
+                      path + ": cannot read species file: " + std::strerror(error_number) +
+                          "; expected a readable file");
+        return std::nullopt;
+      }
+      break;
+    }
+  }
+  std::fclose(file);
+  return text;
+}
+
+}  // namespace
+
+std::vector<Species> ReadSpeciesText(const std::string& text, const std::string& file_name) {
+  Problems problems;
+  std::vector<NameRecord> names;
+  if (text.size() > kMaxSpeciesFileBytes) {
+    problems.Add(0,
+                 0,
+                 0,
+                 file_name +
+                     ": species text is larger than 16 MiB, refused before parsing; "
+                     "expected at most 16 MiB");
+    problems.ThrowIfAny();
+  }
+  std::vector<Species> species = FileParser(text, file_name, 0, &problems).Parse(&names);
+  CheckDuplicateNames(names, &problems);
+  problems.ThrowIfAny();
+  return species;
+}
+
+std::vector<Species> ReadSpeciesFiles(const std::vector<std::string>& paths) {
+  Problems problems;
+  std::vector<NameRecord> names;
+  std::vector<Species> all_species;
+  for (std::size_t i = 0; i < paths.size(); ++i) {
+    const int file_index = static_cast<int>(i);
+    const std::optional<std::string> text = ReadFileText(paths[i], file_index, &problems);
+    if (!text) continue;
+    std::vector<Species> species = FileParser(*text, paths[i], file_index, &problems).Parse(&names);
+    for (Species& one : species) all_species.push_back(std::move(one));
+  }
+  CheckDuplicateNames(names, &problems);
+  problems.ThrowIfAny();
+  return all_species;
+}
+
+}  // namespace sevenfold

@@ -1,0 +1,28 @@
+// SPDX-License-Identifier: MIT
+// Reads species files (YAML, schema in docs/species-schema.md) into validated Species.
+// The only part of sevenfold that uses yaml-cpp.
+#pragma once
+
+#include <cstddef>
+#include <string>
+#include <vector>
+
+#include "species/species.h"
+
+namespace sevenfold {
+
+// Files above this size are refused before parsing (a species list is kilobytes; this bounds the
+// memory and time a hostile or mistaken input can cost).
+inline constexpr std::size_t kMaxSpeciesFileBytes = std::size_t{16} << 20;  // 16 MiB
+
+// Reads and validates every file, in order, and returns all species in file order.
+// Throws one Error listing every problem found in all files, one per line, each line
+// "file:line:column: species 'NAME': <key>: <what was found>; expected <what>" (lines and columns
+// 1-based). Species names must be unique across all files. Unreadable or oversized files are
+// reported with the path and the system's reason.
+std::vector<Species> ReadSpeciesFiles(const std::vector<std::string>& paths);
+
+// As ReadSpeciesFiles for one in-memory document; `file_name` is used in locations only.
+std::vector<Species> ReadSpeciesText(const std::string& text, const std::string& file_name);
+
+}  // namespace sevenfold

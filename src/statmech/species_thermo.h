@@ -1,0 +1,46 @@
+// SPDX-License-Identifier: MIT
+// Exact ideal-gas Cp, S and H of one species from its molecular data by statistical mechanics.
+#pragma once
+
+#include <memory>
+#include <vector>
+
+#include "species/species.h"
+
+namespace sevenfold {
+
+// One row of an exact table. SI per mole; entropy at the species' standard pressure.
+struct ThermoPoint {
+  double t_k = 0.0;
+  double cp_j_per_mol_k = 0.0;
+  double s_j_per_mol_k = 0.0;
+  double h_minus_h298_j_per_mol = 0.0;  // H(T) - H(298.15 K)
+  double h_j_per_mol = 0.0;             // dfH(298.15 K) + H(T) - H(298.15 K)
+};
+
+// The lowest and highest temperatures the engine accepts, kelvin.
+inline constexpr double kMinTemperatureK = 10.0;
+inline constexpr double kMaxTemperatureK = 20000.0;
+
+// Exact thermodynamic functions of one species: sums of the contributions of translation,
+// electronic levels, rotation and vibration (docs/theory.md). Construction does the
+// temperature-independent work (rotor levels, torsion levels); evaluation is cheap and
+// thread-safe.
+class SpeciesThermo {
+ public:
+  // Throws Error (naming the species and its file location) when the model cannot be built.
+  explicit SpeciesThermo(const Species& species);
+  ~SpeciesThermo();
+  SpeciesThermo(SpeciesThermo&&) noexcept;
+  SpeciesThermo& operator=(SpeciesThermo&&) noexcept;
+
+  // Thermodynamic functions at t_k. Throws Error outside [kMinTemperatureK, kMaxTemperatureK].
+  ThermoPoint At(double t_k) const;
+  std::vector<ThermoPoint> Tabulate(const std::vector<double>& t_k) const;
+
+ private:
+  struct Model;
+  std::unique_ptr<Model> model_;
+};
+
+}  // namespace sevenfold

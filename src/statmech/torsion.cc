@@ -1,0 +1,188 @@
+// SPDX-License-Identifier: MIT
+#include "statmech/torsion.h"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <numeric>
+
+#include <Eigen/Dense>
+#include <fmt/format.h>
+
+#include "core/constants.h"
+#include "core/error.h"
+#include "statmech/species_thermo.h"
+
+namespace sevenfold {
+namespace {
+
+// Points for the range of V(phi): the cosine series has at most a few dozen terms, so 4096
+// samples find its extremes to far better than the margin they feed.
+constexpr int kPotentialSamples = 4096;
+// Rounds of basis growth before giving up.
+constexpr int kMaxRounds = 8;
+
+struct Terms {
+  std::vector<std::pair<int, double>> nonzero;  // (k, V_k in K) with V_k != 0
+  int gcd = 1;
+  int max_k = 0;
+  double mean_k = 0.0;   // average of V over phi: sum V_k / 2
+  double range_k = 0.0;  // max V - min V
+};
+
+Terms Analyse(const std::vector<std::pair<int, double>>& fourier_k) {
+  Terms terms;
+  for (const auto& [k, v] : fourier_k) {
+    SEVENFOLD_ASSERT(k >= 1);
+    if (v == 0.0) continue;
+    terms.nonzero.emplace_back(k, v);
+    terms.gcd = terms.nonzero.size() == 1 ? k : std::gcd(terms.gcd, k);
+    terms.max_k = std::max(terms.max_k, k);
+    terms.mean_k += 0.5 * v;
+  }
+  double low = std::numeric_limits<double>::infinity(), high = -low;
+  for (int i = 0; i < kPotentialSamples; ++i) {
+    const double phi = 2.0 * constants::kPi * i / kPotentialSamples;
+    double v = 0.0;
+    for (const auto& [k, v_k] : terms.nonzero) v += 0.5 * v_k * (1.0 - std::cos(k * phi));
+    low = std::min(low, v);
+    high = std::max(high, v);
+  }
+  terms.range_k = high - low;
+  return terms;
+}
+
+// Eigenvalues of one block m = r, r + g, r + 2g, ... within [-max_m, max_m].
+void AppendBlock(double theta_k, const Terms& terms, int residue, int max_m,
+                 std::vector<double>& out) {
+  const int g = terms.gcd;
+  // The smallest m >= -max_m with m = residue (mod g).
+  int first = -max_m + ((residue + max_m) % g + g) % g;
+  std::vector<int> ms;
+  for (int m = first; m <= max_m; m += g) ms.push_back(m);
+  const int n = static_cast<int>(ms.size());
+  if (n == 0) return;
+  Eigen::VectorXd diagonal(n);
+  for (int i = 0; i < n; ++i) diagonal(i) = theta_k * ms[i] * ms[i] + terms.mean_k;
+  if (terms.nonzero.empty() || n == 1) {
+    for (int i = 0; i < n; ++i) out.push_back(diagonal(i));
+    return;
+  }
+  if (terms.nonzero.size() == 1 && terms.nonzero[0].first == g) {
+    // One cosine term: neighbours in the block couple, nothing else. Eigen's tridiagonal QL does
+    // not scale its input (compute() does), so scale to [-1, 1] first; exact in binary.
+    const double off = -0.25 * terms.nonzero[0].second;
+    Eigen::VectorXd off_diagonal = Eigen::VectorXd::Constant(n - 1, off);
+    const double scale = std::max(diagonal.cwiseAbs().maxCoeff(), std::abs(off));
+    Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> solver;
+    solver.computeFromTridiagonal(diagonal / scale, off_diagonal / scale, Eigen::EigenvaluesOnly);
+    SEVENFOLD_ASSERT(solver.info() == Eigen::Success);
+    for (int i = 0; i < n; ++i) out.push_back(solver.eigenvalues()(i) * scale);
+    return;
+  }
+  Eigen::MatrixXd matrix = Eigen::MatrixXd::Zero(n, n);
+  matrix.diagonal() = diagonal;
+  for (const auto& [k, v_k] : terms.nonzero) {
+    const int step = k / g;
+    for (int i = 0; i + step < n; ++i) {
+      matrix(i, i + step) += -0.25 * v_k;
+      matrix(i + step, i) += -0.25 * v_k;
+    }
+  }
+  Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> solver(matrix, Eigen::EigenvaluesOnly);
+  SEVENFOLD_ASSERT(solver.info() == Eigen::Success);
+  for (int i = 0; i < n; ++i) out.push_back(solver.eigenvalues()(i));
+}
+
+std::vector<double> Eigenvalues(double theta_k, const Terms& terms, int max_m) {
+  std::vector<double> values;
+  values.reserve(2 * max_m + 1);
+  for (int r = 0; r < terms.gcd; ++r) AppendBlock(theta_k, terms, r, max_m, values);
+  std::sort(values.begin(), values.end());
+  return values;
+}
+
+// Smallest |m| cap that can represent the levels up to energy_cut_k above the lowest one, with a
+// margin of a few coupling steps for the states just below the cut.
+int StartingMaxM(double theta_k, const Terms& terms, double energy_cut_k) {
+  return static_cast<int>(std::ceil(std::sqrt((energy_cut_k + terms.range_k) / theta_k))) +
+         2 * terms.max_k + 10;
+}
+
+}  // namespace
+
+std::vector<double> TorsionEigenvalues(double theta_k,
+                                       const std::vector<std::pair<int, double>>& fourier_k,
+                                       int max_m) {
+  return Eigenvalues(theta_k, Analyse(fourier_k), max_m);
+}
+
+TorsionContribution::TorsionContribution(double theta_k, int symmetry,
+                                         const std::vector<std::pair<int, double>>& fourier_k,
+                                         const TorsionOptions& options) {
+  SEVENFOLD_ASSERT(theta_k > 0.0 && symmetry >= 1);
+  const Terms terms = Analyse(fourier_k);
+  const bool tridiagonal =
+      terms.nonzero.empty() || (terms.nonzero.size() == 1 && terms.nonzero[0].first == terms.gcd);
+  const int cap_m = tridiagonal ? options.max_m_tridiagonal : options.max_m_dense;
+
+  // Sum explicitly up to the top of the engine's range if the basis this needs is affordable;
+  // otherwise lower the top to what the capped basis converges, and hand over to the tail there.
+  double top_t = kMaxTemperatureK;
+  double switch_t = std::numeric_limits<double>::infinity();
+  // Leave room for the convergence rounds, which grow the basis by a quarter each.
+  const int affordable_m = static_cast<int>(cap_m / 1.6);
+  if (StartingMaxM(theta_k, terms, options.level_cut_factor * top_t) > affordable_m) {
+    const double root = affordable_m - 2.0 * terms.max_k - 10.0;
+    top_t = (theta_k * root * root - terms.range_k) / options.level_cut_factor;
+    switch_t = top_t;
+    if (!(top_t > 0.0)) {
+      throw Error(fmt::format("torsion with B/k = {} K and a barrier of {} K needs a free-rotor "
+                              "basis beyond |m| = {}; expected a larger rotational constant",
+                              theta_k, terms.range_k, cap_m));
+    }
+  }
+  const double energy_cut = options.level_cut_factor * top_t;
+
+  int max_m = StartingMaxM(theta_k, terms, energy_cut);
+  std::vector<double> previous = Eigenvalues(theta_k, terms, max_m);
+  bool converged = false;
+  for (int round = 0; round < kMaxRounds && !converged; ++round) {
+    const int next_m = max_m + std::max(10, max_m / 4);
+    if (next_m > cap_m) break;
+    std::vector<double> next = Eigenvalues(theta_k, terms, next_m);
+    converged = true;
+    const double lowest = next.front();
+    for (std::size_t i = 0; i < previous.size() && next[i] - lowest <= energy_cut; ++i) {
+      const double change = std::abs(next[i] - previous[i]);
+      if (change > options.convergence_tolerance * (std::abs(next[i]) + theta_k)) {
+        converged = false;
+        break;
+      }
+    }
+    max_m = next_m;
+    previous = std::move(next);
+  }
+  if (!converged) {
+    throw Error(fmt::format("torsion levels did not converge to {} relative up to {} K with "
+                            "|m| <= {} (B/k = {} K, barrier {} K)",
+                            options.convergence_tolerance, energy_cut, max_m, theta_k,
+                            terms.range_k));
+  }
+  basis_max_m_ = max_m;
+
+  const double lowest = previous.front();
+  std::vector<Level> levels;
+  for (const double e : previous) {
+    if (e - lowest > energy_cut) break;
+    levels.push_back({e - lowest, 1.0});
+  }
+  // High-temperature limit, energies from the lowest level E0: q -> sqrt(pi T / theta) / n times
+  // exp((E0 - <V>) / T); the quantum corrections start at 1/T^3 (Wigner-Kirkwood; the free
+  // rotor's own corrections are exponentially small), so c1 = E0 - <V> is exact.
+  ladder_ = RotorContribution::FromLevels(std::move(levels), 0.5,
+                                          0.5 * std::log(constants::kPi / theta_k),
+                                          lowest - terms.mean_k, switch_t, symmetry);
+}
+
+}  // namespace sevenfold

@@ -1,0 +1,172 @@
+// SPDX-License-Identifier: MIT
+// Tests of the core helpers: quantities with units, atomic weights, SHA-256.
+#include <catch2/catch.hpp>
+#include <cmath>
+#include <fstream>
+#include <set>
+#include <sstream>
+#include <string>
+
+#include "core/constants.h"
+#include "core/digest.h"
+#include "core/elements.h"
+#include "core/error.h"
+#include "core/units.h"
+
+namespace sevenfold {
+namespace {
+
+// Unit conversions are products of exactly defined constants: agreement to a few ulps.
+constexpr double kConversionRelativeTolerance = 1.0e-14;
+// Reference conversion factors below are quoted to 10 significant figures.
+constexpr double kQuotedTenFiguresTolerance = 1.0e-9;
+
+const SourceLocation kWhere{"input.yaml", 3, 7};
+
+}  // namespace
+
+TEST_CASE("energies with units convert to joules per mole", "[core]") {
+  using Catch::Matchers::WithinRel;
+  CHECK_THAT(ParseEnergyJPerMol("-110.53 kJ/mol", kWhere),
+             WithinRel(-110530.0, kConversionRelativeTolerance));
+  // Thermochemical calorie = 4.184 J exactly (NIST SP 811, 2008, appendix B.8).
+  CHECK_THAT(ParseEnergyJPerMol("1 kcal/mol", kWhere),
+             WithinRel(4184.0, kConversionRelativeTolerance));
+  CHECK_THAT(ParseEnergyJPerMol("250 J/mol", kWhere),
+             WithinRel(250.0, kConversionRelativeTolerance));
+  // 1 eV per molecule = F x 1 V = 96485.33212 J/mol (CODATA 2018 Faraday constant, exact).
+  CHECK_THAT(ParseEnergyJPerMol("1 eV", kWhere),
+             WithinRel(96485.33212, kQuotedTenFiguresTolerance));
+  // 1 cm^-1 = N_A h c: CODATA 2018 molar Planck constant N_A h = 3.990312712e-10 J s/mol (exact,
+  // quoted to 10 figures; from memory) times c = 2.99792458e10 cm/s.
+  CHECK_THAT(ParseEnergyJPerMol("1 cm^-1", kWhere),
+             WithinRel(3.990312712e-10 * 2.99792458e10, kQuotedTenFiguresTolerance));
+  // A bare number means kJ/mol (project convention, docs/species-schema.md).
+  CHECK_THAT(ParseEnergyJPerMol("-393.51", kWhere),
+             WithinRel(-393510.0, kConversionRelativeTolerance));
+  CHECK_THAT(ParseEnergyJPerMol("  +2.5e1kJ/mol ", kWhere),
+             WithinRel(25000.0, kConversionRelativeTolerance));
+}
+
+TEST_CASE("pressures with units convert to pascal", "[core]") {
+  using Catch::Matchers::WithinRel;
+  // 1 atm = 101325 Pa and 1 bar = 1e5 Pa, both exact by definition (NIST SP 811, 2008).
+  CHECK_THAT(ParsePressurePa("1 atm", kWhere), WithinRel(101325.0, kConversionRelativeTolerance));
+  CHECK_THAT(ParsePressurePa("1 bar", kWhere), WithinRel(1.0e5, kConversionRelativeTolerance));
+  CHECK_THAT(ParsePressurePa("101.325 kPa", kWhere),
+             WithinRel(101325.0, kConversionRelativeTolerance));
+  CHECK_THAT(ParsePressurePa("5 Pa", kWhere), WithinRel(5.0, kConversionRelativeTolerance));
+  CHECK_THAT(ParsePressurePa("2", kWhere), WithinRel(2.0e5, kConversionRelativeTolerance));
+}
+
+TEST_CASE("an unknown unit is rejected with the text, the location and the accepted units",
+          "[core]") {
+  REQUIRE_THROWS_WITH(ParseEnergyJPerMol("-110.53 kJ", kWhere),
+                      Catch::StartsWith("input.yaml:3:7: '-110.53 kJ' has unknown unit 'kJ'") &&
+                          Catch::Contains("kJ/mol, kcal/mol, J/mol, eV, cm^-1") &&
+                          Catch::Contains("a bare number means kJ/mol"));
+  REQUIRE_THROWS_WITH(ParsePressurePa("1 torr", kWhere),
+                      Catch::StartsWith("input.yaml:3:7: '1 torr' has unknown unit 'torr'") &&
+                          Catch::Contains("bar, atm, Pa, kPa"));
+  REQUIRE_THROWS_AS(ParseEnergyJPerMol("kJ/mol", kWhere), Error);
+  REQUIRE_THROWS_WITH(ParseEnergyJPerMol("abc", kWhere),
+                      Catch::Contains("'abc' does not start with a number"));
+}
+
+TEST_CASE("non-finite and non-positive quantities are rejected", "[core]") {
+  REQUIRE_THROWS_WITH(ParseEnergyJPerMol("inf kJ/mol", kWhere),
+                      Catch::Contains("'inf kJ/mol' is not a finite number"));
+  REQUIRE_THROWS_WITH(ParseEnergyJPerMol("nan", kWhere), Catch::Contains("is not a finite number"));
+  REQUIRE_THROWS_WITH(ParseEnergyJPerMol("1e400 J/mol", kWhere), Catch::Contains("1e400"));
+  REQUIRE_THROWS_WITH(ParsePressurePa("-1 bar", kWhere),
+                      Catch::Contains("'-1 bar' is not positive"));
+  REQUIRE_THROWS_WITH(ParsePressurePa("0", kWhere), Catch::Contains("is not positive"));
+  CHECK_FALSE(ParsePlainNumber("1.5x").has_value());
+  CHECK_FALSE(ParsePlainNumber("").has_value());
+  CHECK(ParsePlainNumber(" -2.5e-3 ").value() == -2.5e-3);
+}
+
+TEST_CASE("atomic weights agree with the IUPAC table shipped in python3-ase", "[core]") {
+  // tests/data/atomic_weights_ase_iupac2016.txt was generated from python3-ase (see its header).
+  // Our values are the 2021 abridged ones, rounded to at most five significant figures: rounding
+  // moves a value by at most 5e-5 relative (leading digit 1); the 2016 -> 2021 changes among our
+  // elements (Ar: 39.948 -> conventional 39.95) are of the same size. Hence 1e-4 relative.
+  constexpr double kAbridgedRelativeTolerance = 1.0e-4;
+  std::ifstream file(std::string(SEVENFOLD_SOURCE_DIR) +
+                     "/tests/data/atomic_weights_ase_iupac2016.txt");
+  REQUIRE(file.good());
+  std::set<std::string> seen;
+  std::string line;
+  while (std::getline(file, line)) {
+    if (line.empty() || line[0] == '#') continue;
+    std::istringstream fields(line);
+    std::string symbol;
+    double reference = 0.0;
+    REQUIRE(static_cast<bool>(fields >> symbol >> reference));
+    INFO("element " << symbol);
+    const std::optional<double> ours = AtomicWeightGPerMol(symbol);
+    REQUIRE(ours.has_value());
+    CHECK_THAT(*ours, Catch::Matchers::WithinRel(reference, kAbridgedRelativeTolerance));
+    seen.insert(symbol);
+  }
+  // Every element of our table (apart from the isotopes D and T) is covered by the reference file.
+  for (const std::string& symbol : KnownElementSymbols()) {
+    if (symbol == "D" || symbol == "T") continue;
+    INFO("element " << symbol);
+    CHECK(seen.count(symbol) == 1);
+  }
+  CHECK(seen.size() + 2 == KnownElementSymbols().size());
+}
+
+TEST_CASE("deuterium and tritium masses agree with CODATA nuclear masses plus an electron",
+          "[core]") {
+  // CODATA 2018 (from memory): A_r(d) = 2.013553212745, A_r(t) = 3.01550071621,
+  // A_r(e) = 5.48579909065e-4. The atom is nucleus + electron - binding energy; 13.6 eV is
+  // 1.46e-8 u. The CODATA digits quoted from memory limit the comparison to about 1e-9 u.
+  constexpr double kBindingAmu = 13.6 / 931.49410242e6;  // eV / (u c^2 in eV), CODATA 2018
+  constexpr double kIsotopeToleranceAmu = 1.0e-9;
+  const double deuterium = 2.013553212745 + constants::kElectronMassInAmu - kBindingAmu;
+  const double tritium = 3.01550071621 + constants::kElectronMassInAmu - kBindingAmu;
+  CHECK(std::fabs(AtomicWeightGPerMol("D").value() - deuterium) < kIsotopeToleranceAmu);
+  CHECK(std::fabs(AtomicWeightGPerMol("T").value() - tritium) < kIsotopeToleranceAmu);
+}
+
+TEST_CASE("unknown element symbols are not guessed", "[core]") {
+  CHECK_FALSE(AtomicWeightGPerMol("Xx").has_value());
+  CHECK_FALSE(AtomicWeightGPerMol("c").has_value());  // symbols are case-sensitive
+  CHECK_FALSE(AtomicWeightGPerMol("CO").has_value());
+  CHECK_FALSE(AtomicWeightGPerMol("Tc").has_value());  // no standard atomic weight
+}
+
+TEST_CASE("SHA-256 reproduces the FIPS 180-4 example messages", "[core]") {
+  // NIST FIPS 180-4 examples (csrc.nist.gov "Examples with Intermediate Values", SHA-256):
+  // one-block "abc", the empty message, the two-block 448-bit message; and the NIST test of
+  // one million 'a'. Digests from memory, confirmed with coreutils sha256sum.
+  CHECK(Sha256Hex("abc") == "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad");
+  CHECK(Sha256Hex("") == "e3b0c44298fc1c149afbf4c8996fb92427ae41e4649b934ca495991b7852b855");
+  CHECK(Sha256Hex("abcdbcdecdefdefgefghfghighijhijkijkljklmklmnlmnomnopnopq") ==
+        "248d6a61d20638b8e5c026930c3e6039a33ce45964ff2167f6ecedd419db06c1");
+  CHECK(Sha256Hex(std::string(1000000, 'a')) ==
+        "cdc76e5c9914fb9281a1c7e284d73e67f1809a48a497200e046d39ccc7112cd0");
+}
+
+TEST_CASE("SHA-256 pads correctly at every block boundary", "[core]") {
+  // Lengths around the padding edges (55/56 and 119/120 bytes: the length field fits or spills
+  // into a new block; 63/64/65: a full block). Digests from coreutils sha256sum 9.1 on
+  // `head -c N /dev/zero | tr '\0' a`.
+  const std::pair<int, const char*> cases[] = {
+      {55, "9f4390f8d30c2dd92ec9f095b65e2b9ae9b0a925a5258e241c9f1e910f734318"},
+      {56, "b35439a4ac6f0948b6d6f9e3c6af0f5f590ce20f1bde7090ef7970686ec6738a"},
+      {63, "7d3e74a05d7db15bce4ad9ec0658ea98e3f06eeecf16b4c6fff2da457ddc2f34"},
+      {64, "ffe054fe7ae0cb6dc65c3af9b61d5209f439851db43d0ba5997337df154668eb"},
+      {65, "635361c48bb9eab14198e76ea8ab7f1a41685d6ad62aa9146d301d4f17eb0ae0"},
+      {119, "31eba51c313a5c08226adf18d4a359cfdfd8d2e816b13f4af952f7ea6584dcfb"},
+      {120, "2f3d335432c70b580af0e8e1b3674a7c020d683aa5f73aaaedfdc55af904c21c"},
+  };
+  for (const auto& [length, digest] : cases) {
+    INFO("length " << length);
+    CHECK(Sha256Hex(std::string(length, 'a')) == digest);
+  }
+}
+
+}  // namespace sevenfold

@@ -1,0 +1,813 @@
+// SPDX-License-Identifier: MIT
+// Tests of the species module: the YAML schema, its validation messages, rigid-body geometry and
+// molar masses.
+#include "species/species.h"
+
+#include <unistd.h>
+
+#include <algorithm>
+#include <catch2/catch.hpp>
+#include <cmath>
+#include <filesystem>
+#include <fstream>
+#include <string>
+#include <vector>
+
+#include "core/constants.h"
+#include "core/elements.h"
+#include "core/error.h"
+#include "species/geometry.h"
+#include "species/species_reader.h"
+
+namespace sevenfold {
+namespace {
+
+using Catch::Contains;
+using Catch::Matchers::WithinRel;
+
+// Values read from text must come back as the same double: only the unit factor rounds.
+constexpr double kReadRelativeTolerance = 1.0e-14;
+// Eigen's symmetric 3x3 eigensolver is backward stable: moments good to a few hundred ulps of the
+// largest one.
+constexpr double kEigenRelativeTolerance = 1.0e-12;
+
+std::string Join(const std::vector<std::string>& lines) {
+  std::string text;
+  for (const std::string& line : lines) text += line + "\n";
+  return text;
+}
+
+// The Error text of reading `text` as "f.yaml", or "" when it reads without error.
+std::string ErrorOf(const std::string& text) {
+  try {
+    ReadSpeciesText(text, "f.yaml");
+  } catch (const Error& error) {
+    return error.what();
+  }
+  return "";
+}
+
+int NumProblems(const std::string& text) {
+  const std::string message = ErrorOf(text);
+  if (message.empty()) return 0;
+  return 1 + static_cast<int>(std::count(message.begin(), message.end(), '\n'));
+}
+
+// A valid linear species. CO2 constants from memory (B0 from its infrared spectrum, fundamentals
+// nu1, nu2 (twice), nu3; formation enthalpy CODATA key value); the validation tests below only
+// edit one line at a time. Value columns: key length + 7 (4 spaces of indent, ": ").
+std::vector<std::string> Co2Lines() {
+  return {
+      "species:",                                        // 1
+      "  - name: CO2",                                   // 2, name value at column 11
+      "    composition: {C: 1, O: 2}",                   // 3, value at column 18
+      "    formation-enthalpy: -393.51 kJ/mol",          // 4, column 25
+      "    shape: linear",                               // 5, column 12
+      "    symmetry-number: 2",                          // 6, column 22
+      "    rotational-constants: [0.39021]",             // 7, column 27
+      "    vibrations: [1333.0, 667.4, 667.4, 2349.0]",  // 8, column 17
+  };
+}
+
+// A valid nonlinear species: H2O ground-state rotational constants A, B, C (written out of order
+// on purpose) and fundamentals nu1, nu2, nu3, from memory; formation enthalpy of the gas, CODATA
+// key value, from memory.
+std::vector<std::string> WaterLines() {
+  return {
+      "species:",                                              // 1
+      "  - name: H2O",                                         // 2
+      "    composition: {H: 2, O: 1}",                         // 3
+      "    formation-enthalpy: -241.826",                      // 4
+      "    shape: nonlinear",                                  // 5
+      "    symmetry-number: 2",                                // 6
+      "    rotational-constants: [14.5216, 27.8806, 9.2778]",  // 7, column 27
+      "    vibrations: [3657, 1595, 3756]",                    // 8, column 17
+  };
+}
+
+std::vector<std::string> With(std::vector<std::string> lines,
+                              std::size_t line_number,
+                              const std::string& replacement) {
+  lines.at(line_number - 1) = replacement;
+  return lines;
+}
+
+std::vector<std::string> Without(std::vector<std::string> lines, std::size_t line_number) {
+  lines.erase(lines.begin() + static_cast<long>(line_number) - 1);
+  return lines;
+}
+
+std::vector<std::string> Plus(std::vector<std::string> lines, const std::string& extra) {
+  lines.push_back(extra);
+  return lines;
+}
+
+// A scratch directory for file-based tests, removed at the end of the test.
+class TempDir {
+ public:
+  TempDir() {
+    path_ = std::filesystem::temp_directory_path() /
+            ("sevenfold_species_test_" + std::to_string(::getpid()));
+    std::filesystem::create_directories(path_);
+  }
+  ~TempDir() { std::filesystem::remove_all(path_); }
+  std::string Write(const std::string& name, const std::string& text) const {
+    const std::string file = (path_ / name).string();
+    std::ofstream(file) << text;
+    return file;
+  }
+  std::string Path(const std::string& name) const { return (path_ / name).string(); }
+
+ private:
+  std::filesystem::path path_;
+};
+
+const char* const kFullExample =
+    R"(# Constants below are from memory (spectroscopic compilations and thermochemical key values);
+# this test checks only how they are read, not their physics.
+defaults:
+  temperatures: {low: 200, mid: auto, high: 6000}
+  pressure: 1 bar
+  fit-thresholds: {cp: 0.005, enthalpy: 0.002, entropy: 0.002}
+species:
+  - name: Ar
+    composition: {Ar: 1}
+    formation-enthalpy: 0
+    shape: atom
+  - name: CO2
+    composition: {C: 1, O: 2}
+    charge: 0
+    formation-enthalpy: -393.51 kJ/mol
+    shape: linear
+    symmetry-number: 2
+    rotational-constants: [0.39021]
+    geometry: [[C, 0, 0, 0], [O, 0, 0, 1.16], [O, 0, 0, -1.16]]
+    vibrations: [1333.0, 667.4, 667.4, 2349.0]
+    temperatures: {low: 200, mid: 1000, high: 3500}
+    fit-thresholds: {cp: 0.003}
+  - name: H2O
+    composition: {H: 2, O: 1}
+    formation-enthalpy: -57.798 kcal/mol
+    shape: nonlinear
+    symmetry-number: 2
+    rotational-constants: [14.5216, 27.8806, 9.2778]
+    vibrations: [3657, 1595, 3756]
+    frequency-scale: 0.98
+    electronic-levels: [[0, 1]]
+    pressure: 1 atm
+  - name: HCN
+    composition: {H: 1, C: 1, N: 1}
+    formation-enthalpy: 135.1
+    shape: linear
+    symmetry-number: 1
+    moments-of-inertia: [11.404]
+    vibrations: [3311, 2097, 712, 712]
+    centrifugal-distortion: 2.9e-6
+  - name: C2H6
+    composition: {C: 2, H: 6}
+    formation-enthalpy: -83.8 kJ/mol
+    shape: nonlinear
+    symmetry-number: 6
+    rotational-constants: [0.6621, 2.681, 0.6621]
+    vibrations: [2954, 1388, 995, 289, 2896, 1379, 2969, 2969, 1468, 1468, 1190, 1190,
+                 2985, 2985, 1469, 1469, 822, 822]
+    torsions: [{replaces: 289, reduced-moment: 1.57, symmetry: 3, barrier: 12.0 kJ/mol}]
+  - name: H2
+    composition: {H: 2}
+    formation-enthalpy: 0 kJ/mol
+    shape: linear
+    symmetry-number: 2
+    diatomic-constants: {we: 4401.21, wexe: 121.34, Be: 60.853, alphae: 3.062, De: 0.0471,
+                         dissociation: 36118.07}
+    nuclear-spin: {even: 1, odd: 3, mixture: normal}
+  - name: O2
+    composition: {O: 2}
+    formation-enthalpy: 0
+    shape: linear
+    symmetry-number: 2
+    rotational-constants: [1.4377]
+    diatomic-constants:
+      - {energy: 0, degeneracy: 3, we: 1580.19, wexe: 11.98, Be: 1.44563, alphae: 0.0159,
+         De: 4.839e-6, dissociation: 41268}
+      - {energy: 7882.4, degeneracy: 2, we: 1483.5, wexe: 12.9, Be: 1.4264, alphae: 0.0171,
+         dissociation: 33386}
+  - name: NO+
+    composition: {N: 1, O: 1}
+    charge: 1
+    formation-enthalpy: 990.8
+    shape: linear
+    symmetry-number: 1
+    rotational-constants: [1.9972]
+    vibrations: [2376.4]
+    optical-isomers: 1
+)";
+
+const Species& Find(const std::vector<Species>& list, const std::string& name) {
+  for (const Species& species : list) {
+    if (species.name == name) return species;
+  }
+  FAIL("species " << name << " not read");
+  return list.front();
+}
+
+}  // namespace
+
+TEST_CASE("a full example file is read into species with every field filled", "[species]") {
+  const std::vector<Species> list = ReadSpeciesText(kFullExample, "full.yaml");
+  REQUIRE(list.size() == 8);
+  CHECK(list[0].name == "Ar");
+  CHECK(list[7].name == "NO+");
+
+  const Species& ar = Find(list, "Ar");
+  CHECK(ar.shape == Shape::kAtom);
+  CHECK(ar.rotational_constants_cm1.empty());
+  CHECK(ar.vibrations_cm1.empty());
+  CHECK(ar.symmetry_number == 1.0);
+  CHECK(ar.location.ToString() == "full.yaml:8:5");
+  CHECK_FALSE(ar.temperatures.mid_k.has_value());
+  CHECK(ar.temperatures.low_k == 200.0);
+  CHECK(ar.temperatures.high_k == 6000.0);
+  CHECK(ar.standard_pressure_pa == constants::kStandardPressureBar);
+
+  const Species& co2 = Find(list, "CO2");
+  CHECK(co2.composition == std::vector<std::pair<std::string, int>>{{"C", 1}, {"O", 2}});
+  CHECK_THAT(co2.formation_enthalpy_j_per_mol, WithinRel(-393510.0, kReadRelativeTolerance));
+  CHECK(co2.shape == Shape::kLinear);
+  CHECK(co2.symmetry_number == 2.0);
+  // Explicit constants win over the geometry, which only cross-checks them.
+  CHECK(co2.rotational_constants_cm1 == std::vector<double>{0.39021});
+  REQUIRE(co2.geometry.size() == 3);
+  CHECK(co2.geometry[1].element == "O");
+  CHECK(co2.geometry[1].z_angstrom == 1.16);
+  CHECK(co2.vibrations_cm1 == std::vector<double>{1333.0, 667.4, 667.4, 2349.0});
+  CHECK(co2.temperatures.mid_k == 1000.0);
+  CHECK(co2.temperatures.high_k == 3500.0);
+  // fit-thresholds override per key; the other two keep the file defaults.
+  CHECK(co2.thresholds.max_cp_relative == 0.003);
+  CHECK(co2.thresholds.max_h_over_rt == 0.002);
+  CHECK(co2.thresholds.max_s_over_r == 0.002);
+  CHECK(co2.location.ToString() == "full.yaml:12:5");
+  CHECK(co2.input_digest.size() == 64);
+
+  const Species& water = Find(list, "H2O");
+  // -57.798 kcal/mol with the thermochemical calorie (4.184 J, exact).
+  CHECK_THAT(water.formation_enthalpy_j_per_mol,
+             WithinRel(-57.798 * 4184.0, kReadRelativeTolerance));
+  // Nonlinear constants are stored sorted A >= B >= C.
+  CHECK(water.rotational_constants_cm1 == std::vector<double>{27.8806, 14.5216, 9.2778});
+  CHECK(water.frequency_scale == 0.98);
+  CHECK(water.standard_pressure_pa == constants::kStandardPressureAtm);
+  REQUIRE(water.electronic_levels.size() == 1);
+  CHECK(water.electronic_levels[0].degeneracy == 1.0);
+
+  const Species& hcn = Find(list, "HCN");
+  REQUIRE(hcn.rotational_constants_cm1.size() == 1);
+  // moments-of-inertia become B = h / (8 pi^2 c I).
+  CHECK_THAT(
+      hcn.rotational_constants_cm1[0],
+      WithinRel(constants::kRotationalConstantTimesInertia / 11.404, kReadRelativeTolerance));
+  CHECK(hcn.centrifugal_distortion_cm1 == 2.9e-6);
+  CHECK(hcn.composition.front().first == "H");  // order as written
+
+  const Species& ethane = Find(list, "C2H6");
+  CHECK(ethane.vibrations_cm1.size() == 18);
+  CHECK(ethane.rotational_constants_cm1 == std::vector<double>{2.681, 0.6621, 0.6621});
+  REQUIRE(ethane.torsions.size() == 1);
+  const Torsion& torsion = ethane.torsions[0];
+  CHECK(torsion.replaces_cm1 == 289.0);
+  CHECK(torsion.symmetry == 3);
+  CHECK_THAT(torsion.rotational_constant_cm1,
+             WithinRel(constants::kRotationalConstantTimesInertia / 1.57, kReadRelativeTolerance));
+  // A plain barrier V0 becomes the single Fourier term k = n.
+  REQUIRE(torsion.fourier_j_per_mol.size() == 1);
+  CHECK(torsion.fourier_j_per_mol[0].first == 3);
+  CHECK_THAT(torsion.fourier_j_per_mol[0].second, WithinRel(12000.0, kReadRelativeTolerance));
+
+  const Species& h2 = Find(list, "H2");
+  CHECK(h2.vibrations_cm1.empty());  // may be omitted with diatomic-constants
+  REQUIRE(h2.diatomic_states.size() == 1);
+  CHECK(h2.diatomic_states[0].constants.we_cm1 == 4401.21);
+  CHECK(h2.diatomic_states[0].constants.wexe_cm1 == 121.34);
+  CHECK(h2.diatomic_states[0].constants.be_cm1 == 60.853);
+  CHECK(h2.diatomic_states[0].constants.alphae_cm1 == 3.062);
+  CHECK(h2.diatomic_states[0].constants.de_cm1 == 0.0471);
+  CHECK(h2.diatomic_states[0].constants.dissociation_cm1 == 36118.07);
+  CHECK(h2.diatomic_states[0].energy_cm1 == 0.0);
+  // Without rotational data, the rigid-rotor B is B_0 = B_e - alpha_e / 2.
+  REQUIRE(h2.rotational_constants_cm1.size() == 1);
+  CHECK_THAT(h2.rotational_constants_cm1[0],
+             WithinRel(60.853 - 3.062 / 2.0, kReadRelativeTolerance));
+  REQUIRE(h2.nuclear_spin.has_value());
+  CHECK(h2.nuclear_spin->even_weight == 1.0);
+  CHECK(h2.nuclear_spin->odd_weight == 3.0);
+  CHECK(h2.nuclear_spin->mixture == SpinMixture::kNormal);
+
+  const Species& o2 = Find(list, "O2");
+  REQUIRE(o2.diatomic_states.size() == 2);
+  CHECK(o2.diatomic_states[1].energy_cm1 == 7882.4);
+  CHECK(o2.diatomic_states[1].degeneracy == 2.0);
+  CHECK(o2.diatomic_states[1].constants.be_cm1 == 1.4264);
+  CHECK(o2.diatomic_states[0].constants.de_cm1 == 4.839e-6);
+  // The list form also fills the electronic levels.
+  REQUIRE(o2.electronic_levels.size() == 2);
+  CHECK(o2.electronic_levels[0].degeneracy == 3.0);
+  CHECK(o2.electronic_levels[1].energy_cm1 == 7882.4);
+  CHECK(o2.rotational_constants_cm1 == std::vector<double>{1.4377});
+
+  const Species& nop = Find(list, "NO+");
+  CHECK(nop.charge == 1);
+}
+
+TEST_CASE("shape and spin-mixture names round-trip through text", "[species]") {
+  for (Shape shape : {Shape::kAtom, Shape::kLinear, Shape::kNonlinear}) {
+    CHECK(ParseShape(ToString(shape)) == shape);
+  }
+  for (SpinMixture mixture : {SpinMixture::kEquilibrium, SpinMixture::kNormal}) {
+    CHECK(ParseSpinMixture(ToString(mixture)) == mixture);
+  }
+  CHECK_FALSE(ParseShape("Linear").has_value());
+  CHECK_FALSE(ParseSpinMixture("frozen").has_value());
+}
+
+TEST_CASE("YAML syntax errors are reported at the parser's mark", "[species]") {
+  // yaml-cpp notices the unclosed flow map of line 3 at the ':' after the next key (line 4,
+  // column 23), where a flow map cannot continue.
+  const std::string text = Join(With(Co2Lines(), 3, "    composition: {C: 1, O: 2"));
+  REQUIRE_THROWS_WITH(ReadSpeciesText(text, "f.yaml"),
+                      Contains("f.yaml:4:23: invalid YAML (end of map flow not found); expected a "
+                               "well-formed YAML document"));
+  CHECK(NumProblems(text) == 1);
+  REQUIRE_THROWS_WITH(ReadSpeciesText("species: [\n", "f.yaml"),
+                      Contains("f.yaml:2:1: invalid YAML"));
+}
+
+TEST_CASE("values of the wrong type are reported with what was found", "[species]") {
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(Co2Lines(), "    charge: one")), "f.yaml"),
+      Contains("f.yaml:9:13: species 'CO2': charge: 'one'; expected a whole number"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(Co2Lines(), 8, "    vibrations: 1333")), "f.yaml"),
+      Contains("f.yaml:8:17: species 'CO2': vibrations: '1333'; expected a list of harmonic "
+               "wavenumbers in cm^-1"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(Co2Lines(), 3, "    composition: [C, O, O]")), "f.yaml"),
+      Contains("f.yaml:3:18: species 'CO2': composition: a list of 3 items; expected a map of "
+               "element symbols to atom counts"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(Co2Lines(), 4, "    formation-enthalpy: -393.51 kJ")), "f.yaml"),
+      Contains("f.yaml:4:25: species 'CO2': formation-enthalpy: '-393.51 kJ' has unknown unit "
+               "'kJ'; expected a molar energy"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(Co2Lines(), 5, "    shape: bent")), "f.yaml"),
+      Contains("f.yaml:5:12: species 'CO2': shape: 'bent'; expected atom, linear or nonlinear"));
+}
+
+TEST_CASE("unknown keys are reported with the allowed ones", "[species]") {
+  const std::string text = Join(Plus(Co2Lines(), "    vibration: [1]"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(text, "f.yaml"),
+      Contains("f.yaml:9:5: species 'CO2': vibration: unknown key; expected one of name, "
+               "composition, charge, formation-enthalpy, shape,") &&
+          Contains("nuclear-spin, torsions"));
+  CHECK(NumProblems(text) == 1);
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText("defaults:\n  pressures: 1 bar\nspecies: []\n", "f.yaml"),
+      Contains("f.yaml:2:3: defaults: pressures: unknown key; expected one of temperatures, "
+               "pressure, fit-thresholds"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText("specie:\n  - name: CO2\n", "f.yaml"),
+      Contains("f.yaml:1:1: specie: unknown key; expected one of defaults, species"));
+}
+
+TEST_CASE("unknown elements and empty compositions are rejected", "[species]") {
+  const std::string unknown = Join(With(Co2Lines(), 3, "    composition: {C: 1, Oo: 2}"));
+  REQUIRE_THROWS_WITH(ReadSpeciesText(unknown, "f.yaml"),
+                      Contains("f.yaml:3:25: species 'CO2': composition: unknown element 'Oo'; "
+                               "expected one of H, He, Li,") &&
+                          Contains(", D, T"));
+  CHECK(NumProblems(unknown) == 1);  // no follow-up complaints about the atom count
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(Co2Lines(), 3, "    composition: {}")), "f.yaml"),
+      Contains("f.yaml:3:18: species 'CO2': composition: an empty map; expected a map of element "
+               "symbols to atom counts"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(Co2Lines(), 3, "    composition: {C: 1, O: 0}")), "f.yaml"),
+      Contains("f.yaml:3:28: species 'CO2': composition.O: 0; expected a positive whole atom "
+               "count"));
+}
+
+TEST_CASE("missing required keys are reported at the species block", "[species]") {
+  const std::vector<std::string> co2 = Co2Lines();
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Without(With(co2, 2, "  - composition: {C: 1, O: 2}"), 3)), "f.yaml"),
+      Contains("f.yaml:2:5: species #1: name: missing; expected a unique species name"));
+  REQUIRE_THROWS_WITH(ReadSpeciesText(Join(Without(co2, 3)), "f.yaml"),
+                      Contains("f.yaml:2:5: species 'CO2': composition: missing; expected a map of "
+                               "element symbols to atom counts"));
+  REQUIRE_THROWS_WITH(ReadSpeciesText(Join(Without(co2, 4)), "f.yaml"),
+                      Contains("f.yaml:2:5: species 'CO2': formation-enthalpy: missing; expected "
+                               "the enthalpy of formation at 298.15 K"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Without(co2, 5)), "f.yaml"),
+      Contains("f.yaml:2:5: species 'CO2': shape: missing; expected atom, linear or nonlinear"));
+  REQUIRE_THROWS_WITH(ReadSpeciesText(Join(Without(co2, 6)), "f.yaml"),
+                      Contains("f.yaml:2:5: species 'CO2': symmetry-number: missing; expected the "
+                               "external symmetry number for a linear species"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Without(co2, 7)), "f.yaml"),
+      Contains("f.yaml:2:5: species 'CO2': rotational-constants: missing (none of "
+               "rotational-constants, moments-of-inertia, geometry given); expected one of them "
+               "for a linear species"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Without(co2, 8)), "f.yaml"),
+      Contains("f.yaml:2:5: species 'CO2': vibrations: missing; expected a list of 4 (3N-5 for a "
+               "linear species of 3 atoms) harmonic wavenumbers in cm^-1"));
+}
+
+TEST_CASE("rotational data is forbidden for atoms", "[species]") {
+  const std::vector<std::string> argon = {
+      "species:",
+      "  - name: Ar",
+      "    composition: {Ar: 1}",
+      "    formation-enthalpy: 0",
+      "    shape: atom",
+  };
+  CHECK(ReadSpeciesText(Join(argon), "f.yaml").size() == 1);
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(argon, "    rotational-constants: [1.0]")), "f.yaml"),
+      Contains("f.yaml:6:5: species 'Ar': rotational-constants: given for an atom; expected no "
+               "rotational data for shape 'atom'"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(argon, "    vibrations: [100]")), "f.yaml"),
+      Contains("f.yaml:6:17: species 'Ar': vibrations: 1 wavenumber; expected none for an atom"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(argon, 3, "    composition: {Ar: 2}")), "f.yaml"),
+      Contains("f.yaml:5:12: species 'Ar': shape: 'atom' for a composition of 2 atoms; expected "
+               "exactly 1 atom for shape 'atom'"));
+}
+
+TEST_CASE("the number of rotational constants must fit the shape", "[species]") {
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(WaterLines(), 7, "    rotational-constants: [27.8806, 14.5216]")),
+                      "f.yaml"),
+      Contains("f.yaml:7:27: species 'H2O': rotational-constants: [27.8806, 14.5216]; expected 3 "
+               "values (A, B, C) for a nonlinear species"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(Co2Lines(), 7, "    rotational-constants: [0.39021, 0.39021]")),
+                      "f.yaml"),
+      Contains("f.yaml:7:27: species 'CO2': rotational-constants: [0.39021, 0.39021]; expected 1 "
+               "value (B) for a linear species"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(Co2Lines(), 7, "    rotational-constants: [-0.39021]")), "f.yaml"),
+      Contains("f.yaml:7:28: species 'CO2': rotational-constants[0]: -0.39021 is not positive; "
+               "expected a positive rotational constant in cm^-1"));
+}
+
+TEST_CASE("the number of vibrations must be 3N-5 or 3N-6", "[species]") {
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(WaterLines(), 8, "    vibrations: [3657, 1595]")), "f.yaml"),
+      Contains("f.yaml:8:17: species 'H2O': vibrations: 2 wavenumbers; expected 3 (3N-6 for a "
+               "nonlinear species of 3 atoms)"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(Co2Lines(), 8, "    vibrations: [1333.0, 667.4, 2349.0]")),
+                      "f.yaml"),
+      Contains("f.yaml:8:17: species 'CO2': vibrations: 3 wavenumbers; expected 4 (3N-5 for a "
+               "linear species of 3 atoms)"));
+}
+
+TEST_CASE("non-positive and non-finite wavenumbers are rejected, imaginary modes by name",
+          "[species]") {
+  // Column 24 is the second list item in "    vibrations: [3657, X, 3756]".
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(WaterLines(), 8, "    vibrations: [3657, -1595, 3756]")), "f.yaml"),
+      Contains("f.yaml:8:24: species 'H2O': vibrations[1]: -1595 cm^-1 is negative, an imaginary "
+               "mode (a saddle point such as a transition state, not a minimum); expected a "
+               "positive wavenumber in cm^-1"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(WaterLines(), 8, "    vibrations: [3657, 0, 3756]")), "f.yaml"),
+      Contains("f.yaml:8:24: species 'H2O': vibrations[1]: 0 cm^-1; expected a positive "
+               "wavenumber in cm^-1"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(WaterLines(), 8, "    vibrations: [3657, .nan, 3756]")), "f.yaml"),
+      Contains("f.yaml:8:24: species 'H2O': vibrations[1]: '.nan'; expected a positive "
+               "wavenumber in cm^-1"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(WaterLines(), 8, "    vibrations: [3657, inf, 3756]")), "f.yaml"),
+      Contains("f.yaml:8:24: species 'H2O': vibrations[1]: 'inf'; expected a positive "
+               "wavenumber in cm^-1"));
+}
+
+TEST_CASE("symmetry numbers below 1, or impossible for a linear species, are rejected",
+          "[species]") {
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(Co2Lines(), 6, "    symmetry-number: 0")), "f.yaml"),
+      Contains("f.yaml:6:22: species 'CO2': symmetry-number: 0; expected a symmetry number of at "
+               "least 1"));
+  // A linear molecule belongs to C_inf_v (sigma 1) or D_inf_h (sigma 2); common practice.
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(Co2Lines(), 6, "    symmetry-number: 3")), "f.yaml"),
+      Contains("f.yaml:6:22: species 'CO2': symmetry-number: 3 for a linear species; expected 1 "
+               "(no centre of symmetry) or 2 (centrosymmetric)"));
+}
+
+TEST_CASE("temperature ranges must be ordered and within 10 to 20000 K", "[species]") {
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(Co2Lines(), "    temperatures: {low: 3000, high: 1000}")),
+                      "f.yaml"),
+      Contains("f.yaml:9:19: species 'CO2': temperatures: low 3000 K is not below high 1000 K; "
+               "expected low < high"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(Co2Lines(), "    temperatures: {low: 300, mid: 200, high: 1000}")),
+                      "f.yaml"),
+      Contains("f.yaml:9:19: species 'CO2': temperatures: mid 200 K is outside (300, 1000) K; "
+               "expected low < mid < high, or mid: auto"));
+  // The species' low overrides the default 200 K while high stays at the default 6000 K.
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(Co2Lines(), "    temperatures: {low: 5, mid: auto}")), "f.yaml"),
+      Contains("f.yaml:9:25: species 'CO2': temperatures.low: 5 K; expected a temperature in "
+               "kelvin within [10, 20000]"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText("defaults:\n  temperatures: {low: 200, high: 30000}\nspecies: []\n",
+                      "f.yaml"),
+      Contains("f.yaml:2:34: defaults: temperatures.high: 30000 K; expected a temperature in "
+               "kelvin within [10, 20000]"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(Co2Lines(), "    temperatures: {mid: hot}")), "f.yaml"),
+      Contains("f.yaml:9:25: species 'CO2': temperatures.mid: 'hot'; expected a temperature in "
+               "kelvin within [10, 20000] or 'auto'"));
+}
+
+TEST_CASE("duplicate species names are reported with both locations", "[species]") {
+  std::vector<std::string> lines = Co2Lines();
+  for (const std::string& line : Without(Co2Lines(), 1)) lines.push_back(line);  // lines 9..15
+  REQUIRE_THROWS_WITH(ReadSpeciesText(Join(lines), "f.yaml"),
+                      Contains("f.yaml:9:11: species 'CO2': name: 'CO2' already defined at "
+                               "f.yaml:2:11; expected names unique across all species files"));
+
+  TempDir dir;
+  const std::string first = dir.Write("first.yaml", Join(Co2Lines()));
+  const std::string second = dir.Write("second.yaml", Join(Co2Lines()));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesFiles({first, second}),
+      Contains(second + ":2:11: species 'CO2': name: 'CO2' already defined at " + first + ":2:11"));
+  // Distinct names across files read fine, in file order.
+  const std::string water = dir.Write("water.yaml", Join(WaterLines()));
+  const std::vector<Species> both = ReadSpeciesFiles({first, water});
+  REQUIRE(both.size() == 2);
+  CHECK(both[0].name == "CO2");
+  CHECK(both[1].name == "H2O");
+  CHECK(both[1].location.ToString() == water + ":2:5");
+}
+
+TEST_CASE("a shape that contradicts the geometry is rejected", "[species]") {
+  // CO2 declared linear, but one O is displaced off the axis by 0.1 angstrom (test input only).
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(
+          Join(With(
+              Co2Lines(), 7, "    geometry: [[C, 0, 0, 0], [O, 0, 0.1, 1.16], [O, 0, 0, -1.16]]")),
+          "f.yaml"),
+      Contains("f.yaml:7:15: species 'CO2': geometry: atoms not on one line (a nonlinear "
+               "geometry); expected a geometry matching shape 'linear'"));
+  // Water declared nonlinear with its three atoms on one line (test input only).
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(
+          Join(With(WaterLines(),
+                    7,
+                    "    geometry: [[O, 0, 0, 0], [H, 0, 0, 0.9572], [H, 0, 0, -0.9572]]")),
+          "f.yaml"),
+      Contains("f.yaml:7:15: species 'H2O': geometry: collinear atoms (a linear geometry); "
+               "expected a geometry matching shape 'nonlinear'"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(Co2Lines(), 7, "    geometry: [[C, 0, 0, 0], [O, 0, 0, 1.16]]")),
+                      "f.yaml"),
+      Contains("f.yaml:7:15: species 'CO2': geometry: atoms {C: 1, O: 1}; expected the atoms of "
+               "the composition {C: 1, O: 2}"));
+}
+
+TEST_CASE("rotational constants must agree with a geometry given beside them", "[species]") {
+  // C=O 1.1600 angstrom (from memory, equilibrium bond length) gives B = 0.39152 cm^-1; the
+  // measured B0 = 0.39021 cm^-1 (from memory) lies within 1 %, 0.40 does not (2.2 % off).
+  const std::vector<std::string> with_geometry =
+      Plus(Co2Lines(), "    geometry: [[C, 0, 0, 0], [O, 0, 0, 1.16], [O, 0, 0, -1.16]]");
+  CHECK(ReadSpeciesText(Join(with_geometry), "f.yaml").size() == 1);
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(with_geometry, 7, "    rotational-constants: [0.40]")), "f.yaml"),
+      Contains("f.yaml:7:27: species 'CO2': rotational-constants: rotational constants [0.4] cm^-1 "
+               "differ from the geometry's [0.391523] cm^-1 by up to 2.17 %; expected agreement "
+               "within 1 %"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(Co2Lines(), "    moments-of-inertia: [43.2]")), "f.yaml"),
+      Contains("f.yaml:9:5: species 'CO2': moments-of-inertia: given together with "
+               "rotational-constants; expected only one of the two"));
+}
+
+TEST_CASE("electronic levels need positive degeneracies and a ground level at 0", "[species]") {
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(Co2Lines(), "    electronic-levels: [[0, 1], [1000, -2]]")),
+                      "f.yaml"),
+      Contains("f.yaml:9:40: species 'CO2': electronic-levels[1]: negative degeneracy -2; "
+               "expected a positive degeneracy"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(Co2Lines(), "    electronic-levels: [[100, 1]]")), "f.yaml"),
+      Contains("f.yaml:9:26: species 'CO2': electronic-levels[0]: ground level at 100 cm^-1; "
+               "expected the first level at 0 cm^-1 (energies are measured from the ground "
+               "level)"));
+}
+
+TEST_CASE("beyond-rigid-rotor options are checked against the species", "[species]") {
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(Co2Lines(), "    nuclear-spin: {even: 1, odd: 0}")), "f.yaml"),
+      Contains("f.yaml:9:5: species 'CO2': nuclear-spin: given for a species that is not a "
+               "homonuclear diatomic; expected nuclear-spin only for a homonuclear diatomic"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(
+          Join(Plus(Co2Lines(), "    diatomic-constants: {we: 1, Be: 1, dissociation: 1}")),
+          "f.yaml"),
+      Contains("f.yaml:9:5: species 'CO2': diatomic-constants: given for a linear species of 3 "
+               "atoms; expected a diatomic (shape linear, 2 atoms)"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(WaterLines(),
+                                "    torsions: [{replaces: 300, rotational-constant: 5, "
+                                "barrier: 1}]")),
+                      "f.yaml"),
+      Contains("f.yaml:9:27: species 'H2O': torsions[0].replaces: 300 cm^-1 matches no vibration "
+               "(or one already replaced); expected one of the wavenumbers listed in vibrations"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(WaterLines(), "    torsions: [{replaces: 1595, barrier: 1}]")),
+                      "f.yaml"),
+      Contains("f.yaml:9:16: species 'H2O': torsions[0].reduced-moment: missing (neither "
+               "reduced-moment nor rotational-constant); expected one of the two"));
+}
+
+TEST_CASE("a torsion may give its potential as a Fourier series", "[species]") {
+  const std::vector<Species> list = ReadSpeciesText(
+      Join(Plus(WaterLines(),
+                "    torsions: [{replaces: 1595, rotational-constant: 5.5, symmetry: 2, "
+                "fourier: [[2, 10.0 kJ/mol], [4, -0.5 kcal/mol]]}]")),
+      "f.yaml");
+  REQUIRE(list.size() == 1);
+  REQUIRE(list[0].torsions.size() == 1);
+  const Torsion& torsion = list[0].torsions[0];
+  CHECK(torsion.rotational_constant_cm1 == 5.5);
+  CHECK(torsion.symmetry == 2);
+  REQUIRE(torsion.fourier_j_per_mol.size() == 2);
+  CHECK(torsion.fourier_j_per_mol[0].first == 2);
+  CHECK_THAT(torsion.fourier_j_per_mol[0].second, WithinRel(10000.0, kReadRelativeTolerance));
+  CHECK(torsion.fourier_j_per_mol[1].first == 4);
+  CHECK_THAT(torsion.fourier_j_per_mol[1].second, WithinRel(-0.5 * 4184.0, kReadRelativeTolerance));
+}
+
+TEST_CASE("all problems of a file are reported together, in file order", "[species]") {
+  std::vector<std::string> lines = With(With(Co2Lines(), 6, "    symmetry-number: 0"),
+                                        8,
+                                        "    vibrations: [1333.0, -667.4, 667.4, 2349.0]");
+  for (const std::string& line :
+       Without(With(WaterLines(), 3, "    composition: {H: 2, Q: 1}"), 1)) {
+    lines.push_back(line);  // the water species is lines 9..15, composition on line 10
+  }
+  const std::string text = Join(lines);
+  const std::string expected =
+      "f.yaml:6:22: species 'CO2': symmetry-number: 0; expected a symmetry number of at least 1\n"
+      "f.yaml:8:26: species 'CO2': vibrations[1]: -667.4 cm^-1 is negative, an imaginary mode "
+      "(a saddle point such as a transition state, not a minimum); expected a positive "
+      "wavenumber in cm^-1\n"
+      "f.yaml:10:25: species 'H2O': composition: unknown element 'Q'; expected one of ";
+  REQUIRE_THROWS_WITH(ReadSpeciesText(text, "f.yaml"), Catch::StartsWith(expected));
+  CHECK(NumProblems(text) == 3);
+}
+
+TEST_CASE("a flood of problems is cut after 100 lines with a count of the rest", "[species]") {
+  std::string vibrations = "    vibrations: [";
+  for (int i = 0; i < 150; ++i) vibrations += (i > 0 ? ", " : "") + std::string("-1");
+  const std::string text = Join(With(WaterLines(), 8, vibrations + "]"));
+  // 150 imaginary modes plus the wrong count (150 instead of 3): 151 problems, 100 shown.
+  REQUIRE_THROWS_WITH(ReadSpeciesText(text, "f.yaml"),
+                      Catch::EndsWith("\n... and 51 more problems not shown"));
+  CHECK(NumProblems(text) == 101);
+}
+
+TEST_CASE("unreadable and oversized files are refused with the path and the reason", "[species]") {
+  TempDir dir;
+  const std::string missing = dir.Path("missing.yaml");
+  REQUIRE_THROWS_WITH(ReadSpeciesFiles({missing}),
+                      Contains(missing + ": cannot open species file: No such file or directory"));
+  const std::string huge = dir.Path("huge.yaml");
+  std::ofstream(huge) << "species: []\n";
+  std::filesystem::resize_file(huge, kMaxSpeciesFileBytes + 1);
+  REQUIRE_THROWS_WITH(ReadSpeciesFiles({huge}),
+                      Contains(huge + ": species file is larger than 16 MiB, refused before "
+                                      "parsing"));
+  REQUIRE_THROWS_WITH(ReadSpeciesFiles({dir.Path("")}),
+                      Contains(": cannot read species file: Is a directory"));
+  REQUIRE_THROWS_WITH(ReadSpeciesText("", "empty.yaml"),
+                      Contains("empty.yaml:1:1: the file holds no data; expected a map with a "
+                               "'species' list"));
+}
+
+TEST_CASE("the input digest ignores comments and layout but not content", "[species]") {
+  const std::string plain = Join(Co2Lines());
+  const std::string digest = ReadSpeciesText(plain, "f.yaml").at(0).input_digest;
+  std::vector<std::string> commented = Co2Lines();
+  commented[3] += "   # CODATA key value";
+  commented.insert(commented.begin(), "# carbon dioxide");
+  commented[3] = "    composition:   {C: 1,   O: 2}";
+  CHECK(ReadSpeciesText(Join(commented), "g.yaml").at(0).input_digest == digest);
+
+  const std::string changed =
+      Join(With(Co2Lines(), 8, "    vibrations: [1333.0, 667.4, 667.4, 2349.1]"));
+  CHECK(ReadSpeciesText(changed, "f.yaml").at(0).input_digest != digest);
+  const std::string with_defaults = "defaults:\n  pressure: 1 atm\n" + plain;
+  CHECK(ReadSpeciesText(with_defaults, "f.yaml").at(0).input_digest != digest);
+}
+
+TEST_CASE("water's geometry gives the principal moments of a bent triatomic", "[species]") {
+  // Equilibrium structure of H2O: r(OH) = 0.9572 angstrom, angle HOH = 104.52 degrees (from
+  // memory, the classic experimental r_e structure).
+  const double r = 0.9572;
+  const double half_angle = 0.5 * 104.52 * constants::kPi / 180.0;
+  const double s = std::sin(half_angle), c = std::cos(half_angle);
+  const std::vector<GeometryAtom> water = {
+      {"O", 0.0, 0.0, 0.0}, {"H", r * s, 0.0, r * c}, {"H", -r * s, 0.0, r * c}};
+  const RigidRotor rotor = AnalyzeGeometry(water);
+  REQUIRE(rotor.shape == Shape::kNonlinear);
+
+  // Analytically, with the molecule in the xz plane and its C2 axis along z:
+  // I_z = 2 m_H (r s)^2, I_x = 2 m_H m_O (r c)^2 / M, and I_y = I_x + I_z (planar).
+  const double m_h = AtomicWeightGPerMol("H").value();
+  const double m_o = AtomicWeightGPerMol("O").value();
+  const double total = m_o + 2.0 * m_h;
+  std::vector<double> expected = {
+      2.0 * m_h * r * r * s * s, 2.0 * m_h * m_o * r * r * c * c / total, 0.0};
+  expected[2] = expected[0] + expected[1];
+  std::sort(expected.begin(), expected.end());
+  for (int k = 0; k < 3; ++k) {
+    CHECK_THAT(rotor.moments_amu_angstrom2[k], WithinRel(expected[k], kEigenRelativeTolerance));
+  }
+  // python3-ase 3.22.1, Atoms("OH2", same positions).get_moments_of_inertia() with its IUPAC 2016
+  // masses (equal to ours for H and O), printed to 10 significant figures.
+  constexpr double kTenFigures = 1.0e-9;
+  CHECK_THAT(rotor.moments_amu_angstrom2[0], WithinRel(0.6145678266, kTenFigures));
+  CHECK_THAT(rotor.moments_amu_angstrom2[1], WithinRel(1.155115177, kTenFigures));
+  CHECK_THAT(rotor.moments_amu_angstrom2[2], WithinRel(1.769683003, kTenFigures));
+  // A = K / I_a >= B >= C.
+  REQUIRE(rotor.rotational_constants_cm1.size() == 3);
+  CHECK_THAT(
+      rotor.rotational_constants_cm1[0],
+      WithinRel(constants::kRotationalConstantTimesInertia / expected[0], kEigenRelativeTolerance));
+  CHECK(rotor.rotational_constants_cm1[0] > rotor.rotational_constants_cm1[1]);
+  CHECK(rotor.rotational_constants_cm1[1] > rotor.rotational_constants_cm1[2]);
+}
+
+TEST_CASE("CO2's geometry is linear with I = 2 m_O r^2", "[species]") {
+  // r(C=O) = 1.1600 angstrom (from memory, equilibrium bond length).
+  const double r = 1.16;
+  const RigidRotor rotor =
+      AnalyzeGeometry({{"C", 0.0, 0.0, 0.0}, {"O", 0.0, 0.0, r}, {"O", 0.0, 0.0, -r}});
+  REQUIRE(rotor.shape == Shape::kLinear);
+  const double expected = 2.0 * AtomicWeightGPerMol("O").value() * r * r;
+  CHECK(rotor.moments_amu_angstrom2[0] <= kLinearMomentRelativeTolerance * expected);
+  CHECK_THAT(rotor.moments_amu_angstrom2[1], WithinRel(expected, kEigenRelativeTolerance));
+  CHECK_THAT(rotor.moments_amu_angstrom2[2], WithinRel(expected, kEigenRelativeTolerance));
+  REQUIRE(rotor.rotational_constants_cm1.size() == 1);
+  CHECK_THAT(
+      rotor.rotational_constants_cm1[0],
+      WithinRel(constants::kRotationalConstantTimesInertia / expected, kEigenRelativeTolerance));
+  // python3-ase 3.22.1 gives 43.0565088 amu angstrom^2 for the same atoms (printed to 9 figures).
+  CHECK_THAT(rotor.moments_amu_angstrom2[2], WithinRel(43.0565088, 1.0e-8));
+
+  const RigidRotor atom = AnalyzeGeometry({{"Ar", 1.0, 2.0, 3.0}});
+  CHECK(atom.shape == Shape::kAtom);
+  CHECK(atom.rotational_constants_cm1.empty());
+  REQUIRE_THROWS_WITH(AnalyzeGeometry({{"Xx", 0.0, 0.0, 0.0}}),
+                      Contains("geometry[0]: unknown element 'Xx'"));
+}
+
+TEST_CASE("molar mass sums IUPAC atomic weights and corrects for the electrons", "[species]") {
+  // IUPAC 2021 conventional atomic weights C 12.011, O 15.999 (from memory): CO2 = 44.009 g/mol.
+  // The sum is exact to rounding: 1e-14 relative.
+  constexpr double kSumTolerance = 1.0e-14;
+  Species co2;
+  co2.name = "CO2";
+  co2.composition = {{"C", 1}, {"O", 2}};
+  CHECK_THAT(co2.MolarMassKgPerMol(), WithinRel(44.009e-3, kSumTolerance));
+  CHECK(co2.NumAtoms() == 3);
+
+  // A cation lacks electrons, an anion carries extra ones (electron mass: CODATA 2018,
+  // 5.48579909065e-4 u).
+  Species cation = co2;
+  cation.charge = 1;
+  CHECK_THAT(cation.MolarMassKgPerMol(),
+             WithinRel((44.009 - 5.48579909065e-4) * 1e-3, kSumTolerance));
+  Species anion = co2;
+  anion.charge = -2;
+  CHECK_THAT(anion.MolarMassKgPerMol(),
+             WithinRel((44.009 + 2.0 * 5.48579909065e-4) * 1e-3, kSumTolerance));
+
+  // D2O with the AME 2020 deuterium mass 2.014101777844 u (from memory).
+  Species heavy_water;
+  heavy_water.composition = {{"D", 2}, {"O", 1}};
+  CHECK_THAT(heavy_water.MolarMassKgPerMol(),
+             WithinRel((2.0 * 2.014101777844 + 15.999) * 1e-3, kSumTolerance));
+}
+
+}  // namespace sevenfold
