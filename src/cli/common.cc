@@ -2,6 +2,7 @@
 #include "cli/common.h"
 
 #include <algorithm>
+#include <iostream>
 #include <map>
 
 #include <fmt/format.h>
@@ -58,6 +59,61 @@ void AddFormatOption(CLI::App& command, TableFormat& format) {
   command.add_option("--format", format, "Output format: text, csv or json")
       ->transform(CLI::CheckedTransformer(formats))
       ->default_str("text");
+}
+
+void AddMidOption(CLI::App& command, std::string& mid) {
+  command.add_option("--mid", mid,
+                     "Mid temperature: 'auto' or kelvin (default: each species' own setting)");
+}
+
+void AddJobsOption(CLI::App& command, int& num_jobs) {
+  command.add_option("-j,--jobs", num_jobs, "Species fitted in parallel (default: hardware threads)")
+      ->check(CLI::Range(1, 1024));
+}
+
+RegenerateOptions MakeRegenerateOptions(const std::string& mid, int num_jobs) {
+  RegenerateOptions options;
+  options.num_jobs = num_jobs;
+  if (mid == "auto") {
+    options.force_auto_mid = true;
+  } else if (!mid.empty()) {
+    double value = 0.0;
+    size_t used = 0;
+    try {
+      value = std::stod(mid, &used);
+    } catch (const std::exception&) {
+      used = 0;
+    }
+    if (used != mid.size() || !(value >= kMinTemperatureK && value <= kMaxTemperatureK)) {
+      throw Error(fmt::format("--mid {}: expected 'auto' or a temperature in K within [{}, {}]",
+                              mid, kMinTemperatureK, kMaxTemperatureK));
+    }
+    options.t_mid_override_k = value;
+  }
+  return options;
+}
+
+int ReportPoorFits(const std::vector<SpeciesFit>& results, bool allow_poor_fits) {
+  int num_poor = 0;
+  for (const SpeciesFit& result : results) {
+    const Species& species = *result.species;
+    if (!result.fit.meets_thresholds) {
+      ++num_poor;
+      for (const std::string& failure : result.fit.threshold_failures) {
+        std::cerr << fmt::format("{}: species '{}': poor fit: {}\n", species.location.ToString(),
+                                 species.name, failure);
+      }
+    }
+    if (!result.fit.extrapolation.sane) {
+      std::cerr << fmt::format("{}: species '{}': warning: extrapolation: {}\n",
+                               species.location.ToString(), species.name,
+                               result.fit.extrapolation.message);
+    }
+  }
+  if (num_poor == 0) return 0;
+  std::cerr << fmt::format("{} of {} fits miss their quality thresholds{}\n", num_poor,
+                           results.size(), allow_poor_fits ? " (allowed by --allow-poor-fits)" : "");
+  return allow_poor_fits ? 0 : 1;
 }
 
 }  // namespace sevenfold::cli

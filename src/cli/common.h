@@ -8,6 +8,7 @@
 #include <CLI/CLI.hpp>
 
 #include "report/table_writer.h"
+#include "mechanism/regenerate.h"
 #include "species/species.h"
 
 namespace sevenfold::cli {
@@ -32,5 +33,17 @@ struct TemperatureChoice {
 // Adds --at / --from / --to / --step bound to `choice`, and --format bound to `format`.
 void AddTemperatureOptions(CLI::App& command, TemperatureChoice& choice);
 void AddFormatOption(CLI::App& command, TableFormat& format);
+
+// Adds --mid: "auto", a temperature in K, or absent (each species' own setting).
+void AddMidOption(CLI::App& command, std::string& mid);
+// Adds --jobs N (default: the machine's hardware threads).
+void AddJobsOption(CLI::App& command, int& num_jobs);
+// Turns --mid and --jobs into regeneration options. Throws Error for a bad --mid.
+RegenerateOptions MakeRegenerateOptions(const std::string& mid, int num_jobs);
+
+// Prints each fit that misses its thresholds, or whose extrapolation leaves the sane band, on
+// stderr naming the species and its file location. Returns 1 when a fit misses its thresholds
+// and !allow_poor_fits, else 0.
+int ReportPoorFits(const std::vector<SpeciesFit>& results, bool allow_poor_fits);
 
 }  // namespace sevenfold::cli

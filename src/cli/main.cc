@@ -6,6 +6,8 @@
 
 #include <CLI/CLI.hpp>
 
+#include "cli/eval_command.h"
+#include "cli/fit_command.h"
 #include "cli/table_command.h"
 #include "core/error.h"
 
@@ -18,6 +20,8 @@ int main(int argc, char** argv) {
   app.require_subcommand(1);
   int exit_status = 0;
   sevenfold::cli::SetupTableCommand(app, exit_status);
+  sevenfold::cli::SetupFitCommand(app, exit_status);
+  sevenfold::cli::SetupEvalCommand(app, exit_status);
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {

@@ -1,0 +1,51 @@
+// SPDX-License-Identifier: MIT
+#include "cli/fit_command.h"
+
+#include <iostream>
+#include <memory>
+
+#include <fmt/format.h>
+
+#include "cli/common.h"
+#include "cli/progress.h"
+#include "core/atomic_file.h"
+#include "core/error.h"
+#include "entries/entries.h"
+#include "mechanism/regenerate.h"
+
+namespace sevenfold::cli {
+
+void SetupFitCommand(CLI::App& app, int& exit_status) {
+  auto options = std::make_shared<FitCommandOptions>();
+  CLI::App* command = app.add_subcommand(
+      "fit", "Fit two-range NASA 7-coefficient polynomials to the exact curves of every species "
+             "and write them to an entries file");
+  command->add_option("files", options->species_files, "Species YAML files")
+      ->required()
+      ->check(CLI::ExistingFile);
+  command->add_option("-o,--output", options->output_path, "Entries file to write")->required();
+  command->add_option("--species", options->species_names, "Only this species (repeatable)");
+  AddMidOption(*command, options->mid);
+  command->add_flag("--smooth-curvature", options->continuous_second_derivative,
+                    "Also make d2Cp/dT2 continuous at the mid temperature");
+  command->add_flag("--allow-poor-fits", options->allow_poor_fits,
+                    "Exit 0 even when a fit misses its quality thresholds (still marked failing)");
+  AddJobsOption(*command, options->num_jobs);
+  command->add_flag("-q,--quiet", options->quiet, "No progress bar");
+  command->callback([options, &exit_status] { exit_status = RunFitCommand(*options); });
+}
+
+int RunFitCommand(const FitCommandOptions& options) {
+  const std::vector<Species> species = LoadSpecies(options.species_files, options.species_names);
+  RegenerateOptions regenerate = MakeRegenerateOptions(options.mid, options.num_jobs);
+  regenerate.continuous_second_derivative = options.continuous_second_derivative;
+  ProgressBar progress("fit", options.quiet);
+  regenerate.progress = progress.Callback();
+  const std::vector<SpeciesFit> results = FitAllSpecies(species, regenerate);
+  progress.Finish();
+  const EntriesFile entries = MakeEntriesFile(results, regenerate);
+  WriteFileAtomically(options.output_path, FormatEntries(entries));
+  return ReportPoorFits(results, options.allow_poor_fits);
+}
+
+}  // namespace sevenfold::cli

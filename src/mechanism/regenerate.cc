@@ -1,0 +1,134 @@
+// SPDX-License-Identifier: MIT
+#include "mechanism/regenerate.h"
+
+#include <algorithm>
+#include <atomic>
+#include <mutex>
+#include <thread>
+
+#include <fmt/format.h>
+
+#include "core/constants.h"
+#include "core/error.h"
+#include "statmech/species_thermo.h"
+
+namespace sevenfold {
+
+using constants::kGasConstant;
+
+FitOptions FitOptionsFor(const Species& species, const RegenerateOptions& options) {
+  FitOptions fit_options;
+  if (options.t_mid_override_k) {
+    fit_options.t_mid_k = options.t_mid_override_k;
+  } else if (!options.force_auto_mid) {
+    fit_options.t_mid_k = species.temperatures.mid_k;
+  }
+  fit_options.continuous_second_derivative = options.continuous_second_derivative;
+  fit_options.num_atoms = species.NumAtoms();
+  return fit_options;
+}
+
+ExactCurves ExactCurvesFor(const Species& species) {
+  const SpeciesThermo thermo(species);
+  ExactCurves curves;
+  curves.t_k = FitGrid(species.temperatures.low_k, species.temperatures.high_k);
+  for (const double t : curves.t_k) {
+    const ThermoPoint point = thermo.At(t);
+    curves.cp_over_r.push_back(point.cp_j_per_mol_k / kGasConstant);
+    curves.h_over_rt.push_back(point.h_j_per_mol / (kGasConstant * t));
+    curves.s_over_r.push_back(point.s_j_per_mol_k / kGasConstant);
+  }
+  return curves;
+}
+
+std::string ModelDescription(const Species& species, const FitOptions& options) {
+  std::string model = "ideal gas; translation; electronic levels";
+  if (!species.diatomic_states.empty()) {
+    model += "; diatomic rovibrational direct sum";
+  } else if (species.shape != Shape::kAtom) {
+    model += "; rigid rotor (explicit sum + matched asymptotic tail); harmonic vibrations";
+    if (species.frequency_scale != 1.0) model += fmt::format(" scaled by {}", species.frequency_scale);
+  }
+  if (species.nuclear_spin) model += "; nuclear-spin statistics " + ToString(species.nuclear_spin->mixture);
+  if (!species.torsions.empty()) model += fmt::format("; {} hindered rotor(s)", species.torsions.size());
+  model += options.t_mid_k ? fmt::format("; fit t_mid fixed at {} K", *options.t_mid_k)
+                           : std::string("; fit t_mid auto");
+  if (options.continuous_second_derivative) model += "; d2Cp/dT2 continuous";
+  if (options.pin_reference_state) model += "; H and S pinned at 298.15 K";
+  return model;
+}
+
+std::vector<SpeciesFit> FitAllSpecies(const std::vector<Species>& species,
+                                      const RegenerateOptions& options) {
+  const int num_species = static_cast<int>(species.size());
+  std::vector<SpeciesFit> results(species.size());
+  std::vector<std::string> errors(species.size());
+  std::atomic<int> next{0};
+  std::atomic<int> num_done{0};
+
+  const auto work = [&] {
+    for (int i = next++; i < num_species; i = next++) {
+      SpeciesFit& result = results[i];
+      result.species = &species[i];
+      try {
+        result.exact = ExactCurvesFor(species[i]);
+        result.fit = FitTwoRange(result.exact, FitOptionsFor(species[i], options),
+                                 species[i].thresholds);
+      } catch (const Error& e) {
+        errors[i] = e.location().file.empty()
+                        ? fmt::format("{}: species '{}': {}", species[i].location.ToString(),
+                                      species[i].name, e.what())
+                        : e.what();
+      }
+      const int done = ++num_done;
+      if (options.progress) options.progress(done, num_species);
+    }
+  };
+
+  int num_threads = options.num_jobs > 0 ? options.num_jobs
+                                         : static_cast<int>(std::thread::hardware_concurrency());
+  num_threads = std::clamp(num_threads, 1, std::max(1, num_species));
+  std::vector<std::thread> threads;
+  for (int t = 1; t < num_threads; ++t) threads.emplace_back(work);
+  work();
+  for (std::thread& thread : threads) thread.join();
+
+  std::string message;
+  for (const std::string& error : errors) {
+    if (error.empty()) continue;
+    if (!message.empty()) message += "\n";
+    message += error;
+  }
+  if (!message.empty()) throw Error(message);
+  return results;
+}
+
+Entry MakeEntry(const SpeciesFit& result, const RegenerateOptions& options) {
+  const Species& species = *result.species;
+  Entry entry;
+  entry.name = species.name;
+  entry.composition = species.composition;
+  entry.charge = species.charge;
+  entry.polynomial = result.fit.polynomial;
+  entry.formation_enthalpy_j_per_mol = species.formation_enthalpy_j_per_mol;
+  entry.reference_pressure_pa = species.standard_pressure_pa;
+  entry.quality.low_range = result.fit.low_range;
+  entry.quality.high_range = result.fit.high_range;
+  entry.quality.extrapolation = result.fit.extrapolation;
+  entry.quality.meets_thresholds = result.fit.meets_thresholds;
+  entry.quality.threshold_failures = result.fit.threshold_failures;
+  entry.provenance.input_sha256 = species.input_digest;
+  entry.provenance.tool_version = SEVENFOLD_VERSION;
+  entry.provenance.model_options = ModelDescription(species, FitOptionsFor(species, options));
+  entry.provenance.source_file = species.location.file;
+  return entry;
+}
+
+EntriesFile MakeEntriesFile(const std::vector<SpeciesFit>& results,
+                            const RegenerateOptions& options) {
+  EntriesFile file;
+  for (const SpeciesFit& result : results) file.entries.push_back(MakeEntry(result, options));
+  return file;
+}
+
+}  // namespace sevenfold

@@ -1,0 +1,55 @@
+// SPDX-License-Identifier: MIT
+// The whole job for a list of species: exact curves, constrained fit, entry. Species are
+// independent and run in parallel; results come back in input order whatever the thread count.
+#pragma once
+
+#include <functional>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "entries/entries.h"
+#include "fit/fitter.h"
+#include "species/species.h"
+
+namespace sevenfold {
+
+struct RegenerateOptions {
+  // Overrides every species' mid temperature (K); empty: each species' own setting.
+  std::optional<double> t_mid_override_k;
+  // When true the species' own mid temperature is ignored and chosen automatically.
+  bool force_auto_mid = false;
+  bool continuous_second_derivative = false;
+  // Worker threads; 0 means the machine's hardware threads.
+  int num_jobs = 0;
+  // Called after each species finishes, from a worker thread (must be thread-safe).
+  std::function<void(int num_done, int num_total)> progress;
+};
+
+// One species' result: the exact curves on the fit grid and the fit.
+struct SpeciesFit {
+  const Species* species = nullptr;  // points into the caller's vector
+  ExactCurves exact;
+  FitResult fit;
+};
+
+// Fits every species. Throws Error listing every species that could not be computed (bad data
+// the reader could not catch, an impossible fit request), each with its file location.
+std::vector<SpeciesFit> FitAllSpecies(const std::vector<Species>& species,
+                                      const RegenerateOptions& options);
+
+// The entry of one fitted species, with provenance.
+Entry MakeEntry(const SpeciesFit& result, const RegenerateOptions& options);
+EntriesFile MakeEntriesFile(const std::vector<SpeciesFit>& results, const RegenerateOptions& options);
+
+// The fit options a species gets under `options`.
+FitOptions FitOptionsFor(const Species& species, const RegenerateOptions& options);
+
+// Exact dimensionless curves of a species on the fit grid of its temperature range.
+ExactCurves ExactCurvesFor(const Species& species);
+
+// A one-line description of the physical model and fit options used for a species; written
+// into each entry's provenance so that a change of model shows as a change of entry.
+std::string ModelDescription(const Species& species, const FitOptions& options);
+
+}  // namespace sevenfold

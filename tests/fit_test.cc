@@ -1,0 +1,457 @@
+// SPDX-License-Identifier: MIT
+// Tests of the fit module: polynomial evaluation, the constrained fit, the mid-temperature
+// choice, the quality figures and the extrapolation check.
+#include <algorithm>
+#include <cmath>
+#include <string>
+#include <vector>
+
+#include <catch2/catch.hpp>
+
+#include "core/constants.h"
+#include "core/error.h"
+#include "fit/fitter.h"
+#include "fit/polynomial.h"
+#include "fit/quality.h"
+
+namespace sevenfold {
+namespace {
+
+using constants::kReferenceTemperature;
+using constants::kWavenumberToKelvin;
+
+// Relative agreement demanded of continuity and pinning: the constraints are solved exactly, so
+// only the rounding of the solve (one refinement step) and of evaluating a quartic whose terms
+// partly cancel remains; 1e-12 leaves a margin of ~100 over that rounding (eps ~ 2.2e-16 times a
+// cancellation factor of ~10-100 in the T-space evaluation).
+constexpr double kConstraintTolerance = 1e-12;
+// Recovery of curves that a polynomial pair represents exactly: the fitted curves differ from
+// the data only by rounding amplified by the conditioning of the least-squares matrix in
+// tau = T/1024 K (~1e4), i.e. ~1e-12; 1e-10 leaves a margin of 100.
+constexpr double kRecoveryTolerance = 1e-10;
+
+// An ideal gas of linear molecules with a classical rotor and harmonic vibrations (an Einstein
+// oscillator per mode). Per McQuarrie, Statistical Mechanics (1976), ch. 8 (from memory), with
+// x = theta_v / T for each mode:
+//   Cp/R = 7/2 + sum x^2 e^x / (e^x - 1)^2
+//   (H - H_0)/RT = 7/2 + sum x / (e^x - 1)
+//   S/R = 7/2 ln T + s_0 + sum [x / (e^x - 1) - ln(1 - e^-x)]
+// The additive constants H_0 and s_0 only shift H and S; they are set so that H(298.15 K) and
+// S(298.15 K) equal CO2's table values (JANAF Thermochemical Tables, 4th ed., Chase 1998, from
+// memory: dfH = -393.52 kJ/mol, S = 213.79 J/(mol K)) to make the curves realistic.
+struct EinsteinGas {
+  std::vector<double> theta_k;
+  double h0_over_r_k = 0.0;
+  double s0_over_r = 0.0;
+
+  double CpOverR(double t_k) const {
+    double value = 3.5;
+    for (double theta : theta_k) {
+      const double x = theta / t_k, e = std::exp(x);
+      value += x * x * e / ((e - 1.0) * (e - 1.0));
+    }
+    return value;
+  }
+  double HThermalOverRT(double t_k) const {
+    double value = 3.5;
+    for (double theta : theta_k) {
+      const double x = theta / t_k;
+      value += x / std::expm1(x);
+    }
+    return value;
+  }
+  double HOverRT(double t_k) const { return h0_over_r_k / t_k + HThermalOverRT(t_k); }
+  double SThermalOverR(double t_k) const {
+    double value = 3.5 * std::log(t_k);
+    for (double theta : theta_k) {
+      const double x = theta / t_k;
+      value += x / std::expm1(x) - std::log(-std::expm1(-x));
+    }
+    return value;
+  }
+  double SOverR(double t_k) const { return s0_over_r + SThermalOverR(t_k); }
+
+  ExactCurves Sample(const std::vector<double>& grid) const {
+    ExactCurves curves;
+    for (double t_k : grid) {
+      curves.t_k.push_back(t_k);
+      curves.cp_over_r.push_back(CpOverR(t_k));
+      curves.h_over_rt.push_back(HOverRT(t_k));
+      curves.s_over_r.push_back(SOverR(t_k));
+    }
+    return curves;
+  }
+};
+
+// CO2 as an Einstein gas. Fundamentals from memory (Herzberg, Molecular Spectra and Molecular
+// Structure II, 1945): 667 cm^-1 (bend, doubly degenerate), 1333 cm^-1, 2349 cm^-1.
+EinsteinGas CarbonDioxide() {
+  EinsteinGas gas;
+  for (double wavenumber_cm1 : {667.0, 667.0, 1333.0, 2349.0}) {
+    gas.theta_k.push_back(wavenumber_cm1 * kWavenumberToKelvin);
+  }
+  const double r = constants::kGasConstant;
+  gas.h0_over_r_k = -393.52e3 / r - kReferenceTemperature * gas.HThermalOverRT(kReferenceTemperature);
+  gas.s0_over_r = 213.79 / r - gas.SThermalOverR(kReferenceTemperature);
+  return gas;
+}
+
+double RelativeDifference(double a, double b, double scale) { return std::fabs(a - b) / scale; }
+
+// Checks continuity of Cp, dCp/dT, H, S (and d2Cp/dT2 when asked) at the mid temperature.
+// Scales: |Cp/R|, |H/RT| and |S/R| themselves; Cp/(R T_mid) for dCp/dT and Cp/(R T_mid^2) for
+// d2Cp/dT2, the natural size of those derivatives (a derivative can pass through zero).
+void RequireContinuous(const TwoRangePolynomial& p, bool second_derivative) {
+  const double t = p.t_mid_k;
+  const double cp = CpOverR(p.low, t);
+  CHECK(RelativeDifference(CpOverR(p.low, t), CpOverR(p.high, t), std::fabs(cp)) <=
+        kConstraintTolerance);
+  CHECK(RelativeDifference(DCpOverRDT(p.low, t), DCpOverRDT(p.high, t), cp / t) <=
+        kConstraintTolerance);
+  CHECK(RelativeDifference(HOverRT(p.low, t), HOverRT(p.high, t), std::fabs(HOverRT(p.low, t))) <=
+        kConstraintTolerance);
+  CHECK(RelativeDifference(SOverR(p.low, t), SOverR(p.high, t), std::fabs(SOverR(p.low, t))) <=
+        kConstraintTolerance);
+  if (second_derivative) {
+    CHECK(RelativeDifference(D2CpOverRDT2(p.low, t), D2CpOverRDT2(p.high, t), cp / (t * t)) <=
+          kConstraintTolerance);
+  }
+}
+
+// A pair of ranges continuous at t_mid_k in Cp, dCp/dT, H and S by construction: the low range
+// is the high one plus kappa (T - t_mid)^2 in Cp/R, with a6 and a7 shifted so that the added
+// enthalpy and entropy vanish at t_mid.
+TwoRangePolynomial ContinuousPair(const NasaCoefficients& high, double t_low_k, double t_mid_k,
+                                  double t_high_k, double kappa) {
+  NasaCoefficients delta{};
+  delta[0] = kappa * t_mid_k * t_mid_k;
+  delta[1] = -2.0 * kappa * t_mid_k;
+  delta[2] = kappa;
+  double h = 0.0, s = delta[0] * std::log(t_mid_k);
+  for (int k = 0; k < 5; ++k) {
+    h += delta[k] * std::pow(t_mid_k, k + 1) / (k + 1);
+    if (k > 0) s += delta[k] * std::pow(t_mid_k, k) / k;
+  }
+  delta[5] = -h;
+  delta[6] = -s;
+  TwoRangePolynomial p;
+  p.t_low_k = t_low_k;
+  p.t_mid_k = t_mid_k;
+  p.t_high_k = t_high_k;
+  p.high = high;
+  for (int k = 0; k < 7; ++k) p.low[k] = high[k] + delta[k];
+  return p;
+}
+
+ExactCurves SamplePolynomial(const TwoRangePolynomial& p, const std::vector<double>& grid) {
+  ExactCurves curves;
+  for (double t_k : grid) {
+    curves.t_k.push_back(t_k);
+    curves.cp_over_r.push_back(CpOverR(p, t_k));
+    curves.h_over_rt.push_back(HOverRT(p, t_k));
+    curves.s_over_r.push_back(SOverR(p, t_k));
+  }
+  return curves;
+}
+
+// An arbitrary high range shaped like a diatomic's (Cp/R rising from ~3.3 to ~4.5 over
+// 1000-6000 K); its values carry no reference claim: the test is recovery of whatever polynomial
+// generated the data.
+constexpr NasaCoefficients kDiatomicLikeHigh = {2.9266,     1.4880e-3, -5.6848e-7, 1.0097e-10,
+                                                -6.7534e-15, -922.80,   5.9805};
+
+}  // namespace
+
+TEST_CASE("polynomial evaluation follows the NASA 7-coefficient definitions", "[fit]") {
+  // Hand-evaluated at T = 2 K with a = (1, 2, 3, 4, 5, 6, 7):
+  // Cp/R = 1 + 4 + 12 + 32 + 80 = 129
+  // H/RT = 1 + 2 + 4 + 8 + 16 + 3 = 34
+  // S/R = ln 2 + 4 + 6 + 32/3 + 20 + 7 = 47.6666... + ln 2
+  // dCp/dT = 2 + 12 + 48 + 160 = 222; d2Cp/dT2 = 6 + 48 + 240 = 294
+  const NasaCoefficients a = {1, 2, 3, 4, 5, 6, 7};
+  CHECK(CpOverR(a, 2.0) == Approx(129.0).epsilon(1e-15));
+  CHECK(HOverRT(a, 2.0) == Approx(34.0).epsilon(1e-15));
+  CHECK(SOverR(a, 2.0) == Approx(47.0 + 2.0 / 3.0 + std::log(2.0)).epsilon(1e-15));
+  CHECK(GOverRT(a, 2.0) == Approx(34.0 - 47.0 - 2.0 / 3.0 - std::log(2.0)).epsilon(1e-15));
+  CHECK(DCpOverRDT(a, 2.0) == Approx(222.0).epsilon(1e-15));
+  CHECK(D2CpOverRDT2(a, 2.0) == Approx(294.0).epsilon(1e-15));
+
+  TwoRangePolynomial p;
+  p.t_mid_k = 1000.0;
+  p.low = a;
+  p.high = {2, 0, 0, 0, 0, 0, 0};
+  CHECK(CpOverR(p, 999.0) == CpOverR(a, 999.0));
+  CHECK(CpOverR(p, 1000.0) == 2.0);  // the high range from t_mid on
+}
+
+TEST_CASE("fit grid includes both ends and 298.15 K and is fine at low temperature", "[fit]") {
+  const std::vector<double> grid = FitGrid(10.0, 6000.0);
+  REQUIRE(grid.front() == 10.0);
+  REQUIRE(grid.back() == 6000.0);
+  CHECK(std::count(grid.begin(), grid.end(), kReferenceTemperature) == 1);
+  CHECK(std::is_sorted(grid.begin(), grid.end()));
+  CHECK(std::adjacent_find(grid.begin(), grid.end()) == grid.end());
+  for (std::size_t i = 1; i < grid.size(); ++i) {
+    const double step = grid[i] - grid[i - 1];
+    if (grid[i] <= 100.0) CHECK(step <= 2.0);
+    if (grid[i] <= 300.0) CHECK(step <= 5.0);
+    CHECK(step <= 50.0);
+  }
+  CHECK(FitGrid(10.0, 6000.0) == grid);  // deterministic
+
+  const std::vector<double> warm = FitGrid(300.0, 5000.0);
+  CHECK(warm.front() == 300.0);
+  CHECK(std::count(warm.begin(), warm.end(), kReferenceTemperature) == 0);
+
+  CHECK_THROWS_WITH(FitGrid(500.0, 400.0),
+                    "fit grid over [500 K, 400 K]; expected 0 < t_low < t_high, finite");
+}
+
+TEST_CASE("a known continuous pair of polynomials is recovered", "[fit]") {
+  const TwoRangePolynomial truth = ContinuousPair(kDiatomicLikeHigh, 200.0, 1000.0, 6000.0, 1e-6);
+  RequireContinuous(truth, false);  // the construction itself
+  const ExactCurves curves = SamplePolynomial(truth, FitGrid(200.0, 6000.0));
+  FitOptions options;
+  options.t_mid_k = 1000.0;
+  const FitResult fit = FitTwoRange(curves, options, QualityThresholds{});
+
+  // Coefficients: the error of each polynomial term a_k T^k at the top of its range, relative to
+  // Cp/R there (a small a5 of the low range is poorly determined on its own, but its term is
+  // what enters Cp); a6 and a7 relative to themselves. Then the curves themselves.
+  const std::pair<const NasaCoefficients*, const NasaCoefficients*> ranges[] = {
+      {&fit.polynomial.low, &truth.low}, {&fit.polynomial.high, &truth.high}};
+  for (const auto& [fitted, exact] : ranges) {
+    const double t_end = fitted == &fit.polynomial.low ? 1000.0 : 6000.0;
+    const double cp_end = CpOverR(*exact, t_end);
+    for (int k = 0; k < 5; ++k) {
+      CAPTURE(k, t_end);
+      CHECK(std::fabs((*fitted)[k] - (*exact)[k]) * std::pow(t_end, k) / cp_end <=
+            kRecoveryTolerance);
+    }
+    CHECK(RelativeDifference((*fitted)[5], (*exact)[5], std::fabs((*exact)[5])) <=
+          kRecoveryTolerance);
+    CHECK(RelativeDifference((*fitted)[6], (*exact)[6], std::fabs((*exact)[6])) <=
+          kRecoveryTolerance);
+  }
+  for (const RangeQuality* q : {&fit.low_range, &fit.high_range}) {
+    CHECK(q->max_cp_relative <= kRecoveryTolerance);
+    CHECK(q->max_h_over_rt <= kRecoveryTolerance);
+    CHECK(q->max_s_over_r <= kRecoveryTolerance);
+    CHECK(q->max_g_over_rt <= kRecoveryTolerance);
+  }
+  CHECK(fit.meets_thresholds);
+  CHECK(fit.mid_choice.method == MidTemperatureMethod::kFixed);
+}
+
+TEST_CASE("fit of an Einstein gas is continuous at the mid temperature and exact at 298.15 K",
+          "[fit]") {
+  const EinsteinGas gas = CarbonDioxide();
+  const ExactCurves curves = gas.Sample(FitGrid(200.0, 6000.0));
+  for (bool second_derivative : {false, true}) {
+    for (std::optional<double> t_mid_k : {std::optional<double>(1000.0), std::optional<double>()}) {
+      CAPTURE(second_derivative, t_mid_k.has_value());
+      FitOptions options;
+      options.t_mid_k = t_mid_k;
+      options.continuous_second_derivative = second_derivative;
+      options.num_atoms = 3;
+      const FitResult fit = FitTwoRange(curves, options, QualityThresholds{});
+      RequireContinuous(fit.polynomial, second_derivative);
+
+      const double t = kReferenceTemperature;
+      CHECK(RelativeDifference(HOverRT(fit.polynomial, t), gas.HOverRT(t),
+                               std::fabs(gas.HOverRT(t))) <= kConstraintTolerance);
+      CHECK(RelativeDifference(SOverR(fit.polynomial, t), gas.SOverR(t), gas.SOverR(t)) <=
+            kConstraintTolerance);
+
+      // With the mid temperature chosen automatically (and no d2Cp/dT2 constraint, which costs a
+      // degree of freedom) this smooth curve meets the default thresholds and extrapolates sanely;
+      // at the customary 1000 K it misses them (max normalised error ~3). Failing fits are
+      // covered by the test with a sharp low-temperature feature below.
+      if (!t_mid_k && !second_derivative) {
+        INFO((fit.threshold_failures.empty() ? "" : fit.threshold_failures.front()) << " | "
+             << fit.extrapolation.message << " | t_mid " << fit.polynomial.t_mid_k);
+        CHECK(fit.meets_thresholds);
+        CHECK(fit.threshold_failures.empty());
+        CHECK(fit.extrapolation.sane);
+      }
+      CHECK(fit.low_range.num_points + fit.high_range.num_points ==
+            static_cast<int>(curves.t_k.size()));
+    }
+  }
+}
+
+TEST_CASE("reference state is pinned also when 298.15 K is not a grid point", "[fit]") {
+  const EinsteinGas gas = CarbonDioxide();
+  std::vector<double> grid;
+  for (double t_k = 200.0; t_k <= 4000.0; t_k += 20.0) grid.push_back(t_k);  // 290, 310: no 298.15
+  const ExactCurves curves = gas.Sample(grid);
+  FitOptions options;
+  options.t_mid_k = 1000.0;
+  const FitResult fit = FitTwoRange(curves, options, QualityThresholds{});
+  // Cubic Hermite interpolation over 20 K with exact end slopes: error ~ (20 K)^4 / 384 times the
+  // fourth derivative of H, far below 1e-7 relative for this smooth curve.
+  constexpr double kInterpolationTolerance = 1e-7;
+  const double t = kReferenceTemperature;
+  CHECK(RelativeDifference(HOverRT(fit.polynomial, t), gas.HOverRT(t), std::fabs(gas.HOverRT(t))) <=
+        kInterpolationTolerance);
+  CHECK(RelativeDifference(SOverR(fit.polynomial, t), gas.SOverR(t), gas.SOverR(t)) <=
+        kInterpolationTolerance);
+}
+
+TEST_CASE("automatic mid temperature is refined by Ceres and does at least as well as a scan",
+          "[fit]") {
+  const EinsteinGas gas = CarbonDioxide();
+  const ExactCurves curves = gas.Sample(FitGrid(200.0, 6000.0));
+  FitOptions automatic;
+  automatic.num_atoms = 3;
+  const FitResult fit = FitTwoRange(curves, automatic, QualityThresholds{});
+  INFO("t_mid = " << fit.polynomial.t_mid_k << ", note: " << fit.mid_choice.note);
+  CHECK(fit.mid_choice.method == MidTemperatureMethod::kScanAndRefinement);
+  CHECK(fit.mid_choice.num_refinement_iterations > 0);
+  CHECK(fit.objective < fit.mid_choice.scan_best_objective);
+
+  // An independent scan in steps of 100 K, and the customary 1000 K (common practice).
+  FitOptions fixed = automatic;
+  fixed.t_mid_k = 1000.0;
+  CHECK(fit.objective <= FitTwoRange(curves, fixed, QualityThresholds{}).objective);
+  for (double t_mid_k = 400.0; t_mid_k <= 5000.0; t_mid_k += 100.0) {
+    fixed.t_mid_k = t_mid_k;
+    CAPTURE(t_mid_k);
+    CHECK(fit.objective <= FitTwoRange(curves, fixed, QualityThresholds{}).objective);
+  }
+  // Deterministic: the same bits again.
+  const FitResult again = FitTwoRange(curves, automatic, QualityThresholds{});
+  CHECK(again.polynomial.t_mid_k == fit.polynomial.t_mid_k);
+  CHECK(again.polynomial.low == fit.polynomial.low);
+  CHECK(again.polynomial.high == fit.polynomial.high);
+}
+
+TEST_CASE("quality figures match a hand-computed case", "[fit]") {
+  // Exact curves = a known polynomial, with three deliberate errors at known points:
+  // Cp 1 % high at 400 K, H/RT 0.003 high at 300 K and 0.004 low at 500 K, S/R 0.002 high at
+  // 500 K. Polynomial a = (4, 0, ..., 0): Cp/R = 4, H/RT = 4, S/R = 4 ln T.
+  const NasaCoefficients a = {4, 0, 0, 0, 0, 0, 0};
+  ExactCurves exact;
+  for (double t_k : {300.0, 400.0, 500.0, 600.0}) {
+    exact.t_k.push_back(t_k);
+    exact.cp_over_r.push_back(4.0);
+    exact.h_over_rt.push_back(4.0);
+    exact.s_over_r.push_back(4.0 * std::log(t_k));
+  }
+  exact.cp_over_r[1] = 4.04;
+  exact.h_over_rt[0] += 0.003;
+  exact.h_over_rt[2] -= 0.004;
+  exact.s_over_r[2] += 0.002;
+  const RangeQuality q = MeasureRangeQuality(a, exact, 0, 4);
+  // By hand: Cp error (4 - 4.04)/4.04 = -0.00990099...; rms = that / sqrt(4).
+  // H errors -0.003, +0.004: max 0.004 at 500 K, rms sqrt((9 + 16)e-6 / 4) = 0.0025.
+  // S error -0.002 at 500 K: rms 0.001. G = H - S errors: -0.003 at 300 K, +0.006 at 500 K:
+  // max 0.006, rms sqrt((9 + 36)e-6 / 4).
+  constexpr double kRounding = 1e-12;  // double arithmetic on O(1) numbers
+  CHECK(q.num_points == 4);
+  CHECK(q.max_cp_relative == Approx(0.04 / 4.04).epsilon(kRounding));
+  CHECK(q.rms_cp_relative == Approx(0.04 / 4.04 / 2.0).epsilon(kRounding));
+  CHECK(q.max_cp_error_t_k == 400.0);
+  CHECK(q.max_h_over_rt == Approx(0.004).epsilon(kRounding));
+  CHECK(q.rms_h_over_rt == Approx(0.0025).epsilon(kRounding));
+  CHECK(q.max_h_error_t_k == 500.0);
+  CHECK(q.max_s_over_r == Approx(0.002).epsilon(kRounding));
+  CHECK(q.rms_s_over_r == Approx(0.001).epsilon(kRounding));
+  CHECK(q.max_s_error_t_k == 500.0);
+  CHECK(q.max_g_over_rt == Approx(0.006).epsilon(kRounding));
+  CHECK(q.rms_g_over_rt == Approx(std::sqrt(45e-6 / 4.0)).epsilon(kRounding));
+  CHECK(q.max_g_error_t_k == 500.0);
+
+  // Only the points [1, 3) count for a sub-range.
+  const RangeQuality part = MeasureRangeQuality(a, exact, 1, 3);
+  CHECK(part.num_points == 2);
+  CHECK(part.max_h_over_rt == Approx(0.004).epsilon(kRounding));
+  CHECK(part.rms_h_over_rt == Approx(std::sqrt(16e-6 / 2.0)).epsilon(kRounding));
+
+  // Thresholds: Cp 0.5 %, H 0.002, S 0.002 (the defaults). Cp and H are missed, S is not.
+  RangeQuality clean;
+  const std::vector<std::string> failures = ThresholdFailures(q, clean, QualityThresholds{});
+  REQUIRE(failures.size() == 2);
+  CHECK(failures[0] == "low range: max |dCp|/Cp = 0.99 % at 400 K exceeds 0.5 %");
+  CHECK(failures[1] == "low range: max |dH|/RT = 0.004 at 500 K exceeds 0.002");
+  const std::vector<std::string> high = ThresholdFailures(clean, q, QualityThresholds{});
+  REQUIRE(high.size() == 2);
+  CHECK(high[0] == "high range: max |dCp|/Cp = 0.99 % at 400 K exceeds 0.5 %");
+}
+
+TEST_CASE("a curve with a sharp low-temperature feature is reported as failing", "[fit]") {
+  // The Einstein gas plus a low-lying two-level electronic system (Schottky anomaly):
+  // q_el = 1 + g e^-x, x = theta/T; U/RT = g x e^-x / q_el, Cp/R = g x^2 e^-x / q_el^2,
+  // S/R = ln q_el + U/RT: the moments of the two-level partition function q_el (common practice).
+  // A gap of 60 K puts a Cp peak of ~0.44 R near 25 K (at T ~ 0.42 theta for g = 1), which a
+  // quartic in T fitted over 20-1000 K cannot follow.
+  const EinsteinGas gas = CarbonDioxide();
+  constexpr double kGapK = 60.0, kDegeneracy = 1.0;
+  ExactCurves curves;
+  for (double t_k : FitGrid(20.0, 3000.0)) {
+    const double x = kGapK / t_k, w = kDegeneracy * std::exp(-x), q = 1.0 + w;
+    curves.t_k.push_back(t_k);
+    curves.cp_over_r.push_back(gas.CpOverR(t_k) + x * x * w / (q * q));
+    curves.h_over_rt.push_back(gas.HOverRT(t_k) + x * w / q);
+    curves.s_over_r.push_back(gas.SOverR(t_k) + std::log(q) + x * w / q);
+  }
+  FitOptions options;
+  options.t_mid_k = 1000.0;
+  const FitResult fit = FitTwoRange(curves, options, QualityThresholds{});
+  CHECK_FALSE(fit.meets_thresholds);
+  REQUIRE_FALSE(fit.threshold_failures.empty());
+  CHECK_THAT(fit.threshold_failures.front(), Catch::StartsWith("low range: max |dCp|/Cp = "));
+  CHECK(fit.low_range.max_cp_relative > QualityThresholds{}.max_cp_relative);
+  CHECK(fit.low_range.max_cp_error_t_k < 100.0);  // the failure sits in the feature
+}
+
+TEST_CASE("extrapolation outside the sane band is reported", "[fit]") {
+  // Cp/R = 3.5 - 1e-12 T^4 on [300, 3000]: 3.5 - 81 = -77.5 at 3000 K already, and worse above.
+  TwoRangePolynomial p;
+  p.t_low_k = 300.0;
+  p.t_mid_k = 1000.0;
+  p.t_high_k = 3000.0;
+  p.low = {3.5, 0, 0, 0, 0, 0, 0};
+  p.high = {3.5, 0, 0, 0, -1e-12, 0, 0};
+  const ExtrapolationCheck check = CheckExtrapolation(p, ClassicalLimitCpOverR(2) + 4.0);
+  CHECK(check.min_cp_over_r_below == 3.5);
+  CHECK(check.max_cp_over_r_below == 3.5);
+  CHECK(check.max_cp_over_r_above == Approx(3.5 - 81.0).epsilon(1e-12));
+  CHECK(check.min_cp_over_r_above == Approx(3.5 - 1e-12 * std::pow(4500.0, 4)).epsilon(1e-12));
+  CHECK_FALSE(check.sane);
+  CHECK(check.message ==
+        "above the range: Cp/R = -406.6 at 4500 K is outside the sane band [2, 8.5]");
+
+  // The classical limits: atom 5/2, linear triatomic 3*3 - 3/2 = 7.5 (translation 5/2, rotation 1,
+  // four vibrations 1 each; common practice, equipartition).
+  CHECK(ClassicalLimitCpOverR(1) == 2.5);
+  CHECK(ClassicalLimitCpOverR(3) == 7.5);
+}
+
+TEST_CASE("impossible fit requests are rejected with the reason", "[fit]") {
+  const ExactCurves curves = CarbonDioxide().Sample(FitGrid(200.0, 6000.0));
+  FitOptions options;
+  options.t_mid_k = 7000.0;
+  CHECK_THROWS_WITH(FitTwoRange(curves, options, QualityThresholds{}),
+                    "mid temperature 7000 K; expected strictly between 200 K and 6000 K");
+  // Grid by hand: 200, 205, ..., 295 (20), 298.15, 300, ..., 990 (70), 1000, ..., 1975 (40),
+  // 2000, ..., 5950 (80), 6000: 212 points; 205 K leaves only 200 K below.
+  options.t_mid_k = 205.0;
+  CHECK_THROWS_WITH(FitTwoRange(curves, options, QualityThresholds{}),
+                    "mid temperature 205 K leaves 1 grid points below and 211 at or above it; "
+                    "expected at least 8 on each side");
+  options.t_mid_k = -1.0;
+  CHECK_THROWS_WITH(FitTwoRange(curves, options, QualityThresholds{}),
+                    "fit options: t_mid_k = -1; expected a positive finite temperature");
+  QualityThresholds zero;
+  zero.max_s_over_r = 0.0;
+  options.t_mid_k.reset();
+  CHECK_THROWS_WITH(FitTwoRange(curves, options, zero),
+                    "quality threshold max_s_over_r = 0; expected a positive finite number");
+  ExactCurves reversed = curves;
+  std::swap(reversed.t_k[3], reversed.t_k[4]);
+  CHECK_THROWS_WITH(FitTwoRange(reversed, options, QualityThresholds{}),
+                    Catch::Contains("expected increasing"));
+}
+
+}  // namespace sevenfold
