@@ -2,6 +2,7 @@
 // Tests of the fit module: polynomial evaluation, the constrained fit, the mid-temperature
 // choice, the quality figures and the extrapolation check.
 #include <algorithm>
+#include <filesystem>
 #include <cmath>
 #include <string>
 #include <vector>
@@ -13,6 +14,8 @@
 #include "fit/fitter.h"
 #include "fit/polynomial.h"
 #include "fit/quality.h"
+#include "mechanism/regenerate.h"
+#include "species/species_reader.h"
 
 namespace sevenfold {
 namespace {
@@ -452,6 +455,42 @@ TEST_CASE("impossible fit requests are rejected with the reason", "[fit]") {
   std::swap(reversed.t_k[3], reversed.t_k[4]);
   CHECK_THROWS_WITH(FitTwoRange(reversed, options, QualityThresholds{}),
                     Catch::Contains("expected increasing"));
+}
+
+TEST_CASE("every demo species fits continuously at T_mid and exactly at 298.15 K", "[fit]") {
+  // The demo scenario in species/ (read through the real reader and engine): continuity of Cp,
+  // dCp/dT, H and S to kConstraintTolerance, H and S equal to the exact values at 298.15 K, and
+  // the default quality thresholds met by every fit.
+  std::vector<std::string> files;
+  for (const auto& item : std::filesystem::directory_iterator(SEVENFOLD_SOURCE_DIR "/species")) {
+    if (item.path().extension() == ".yaml") files.push_back(item.path().string());
+  }
+  std::sort(files.begin(), files.end());
+  REQUIRE(!files.empty());
+  const std::vector<Species> species = ReadSpeciesFiles(files);
+  REQUIRE(species.size() >= 25);
+  RegenerateOptions options;
+  options.num_jobs = 2;
+  const std::vector<SpeciesFit> fits = FitAllSpecies(species, options);
+  for (const SpeciesFit& result : fits) {
+    INFO(result.species->name << " t_mid " << result.fit.polynomial.t_mid_k << " "
+                              << (result.fit.threshold_failures.empty()
+                                      ? std::string()
+                                      : result.fit.threshold_failures.front()));
+    RequireContinuous(result.fit.polynomial, false);
+    const auto at_reference = std::lower_bound(result.exact.t_k.begin(), result.exact.t_k.end(),
+                                               kReferenceTemperature);
+    if (at_reference != result.exact.t_k.end() && *at_reference == kReferenceTemperature) {
+      const size_t i = at_reference - result.exact.t_k.begin();
+      const double t = kReferenceTemperature;
+      CHECK(RelativeDifference(HOverRT(result.fit.polynomial, t), result.exact.h_over_rt[i],
+                               std::max(1.0, std::fabs(result.exact.h_over_rt[i]))) <=
+            kConstraintTolerance);
+      CHECK(RelativeDifference(SOverR(result.fit.polynomial, t), result.exact.s_over_r[i],
+                               result.exact.s_over_r[i]) <= kConstraintTolerance);
+    }
+    CHECK(result.fit.meets_thresholds);
+  }
 }
 
 }  // namespace sevenfold

@@ -30,6 +30,9 @@ void SetupFitCommand(CLI::App& app, int& exit_status) {
                     "Also make d2Cp/dT2 continuous at the mid temperature");
   command->add_flag("--allow-poor-fits", options->allow_poor_fits,
                     "Exit 0 even when a fit misses its quality thresholds (still marked failing)");
+  command->add_flag("--keep-going", options->keep_going,
+                    "Write the entries that could be computed and list the species that could "
+                    "not (exit 1); by default any such species fails the whole run");
   AddJobsOption(*command, options->num_jobs);
   command->add_flag("-q,--quiet", options->quiet, "No progress bar");
   command->callback([options, &exit_status] { exit_status = RunFitCommand(*options); });
@@ -41,11 +44,21 @@ int RunFitCommand(const FitCommandOptions& options) {
   regenerate.continuous_second_derivative = options.continuous_second_derivative;
   ProgressBar progress("fit", options.quiet);
   regenerate.progress = progress.Callback();
-  const std::vector<SpeciesFit> results = FitAllSpecies(species, regenerate);
+  std::vector<std::string> failures;
+  const std::vector<SpeciesFit> results =
+      options.keep_going ? FitAllSpecies(species, regenerate, &failures)
+                         : FitAllSpecies(species, regenerate);
   progress.Finish();
   const EntriesFile entries = MakeEntriesFile(results, regenerate);
   WriteFileAtomically(options.output_path, FormatEntries(entries));
-  return ReportPoorFits(results, options.allow_poor_fits);
+  const int poor_status = ReportPoorFits(results, options.allow_poor_fits);
+  for (const std::string& failure : failures) std::cerr << "error: " << failure << "\n";
+  if (!failures.empty()) {
+    std::cerr << fmt::format("{} of {} species could not be computed and are not in {}\n",
+                             failures.size(), species.size(), options.output_path);
+    return 1;
+  }
+  return poor_status;
 }
 
 }  // namespace sevenfold::cli

@@ -17,6 +17,7 @@ struct FitCommandOptions {
   std::string mid;          // "" (each species' own), "auto", or a temperature in K
   bool continuous_second_derivative = false;
   bool allow_poor_fits = false;
+  bool keep_going = false;  // write the good entries, list the species that failed, exit 1
   int num_jobs = 0;         // 0: hardware threads
   bool quiet = false;
 };

@@ -60,6 +60,12 @@ std::string ModelDescription(const Species& species, const FitOptions& options) 
 
 std::vector<SpeciesFit> FitAllSpecies(const std::vector<Species>& species,
                                       const RegenerateOptions& options) {
+  return FitAllSpecies(species, options, nullptr);
+}
+
+std::vector<SpeciesFit> FitAllSpecies(const std::vector<Species>& species,
+                                      const RegenerateOptions& options,
+                                      std::vector<std::string>* failures) {
   const int num_species = static_cast<int>(species.size());
   std::vector<SpeciesFit> results(species.size());
   std::vector<std::string> errors(species.size());
@@ -93,6 +99,17 @@ std::vector<SpeciesFit> FitAllSpecies(const std::vector<Species>& species,
   work();
   for (std::thread& thread : threads) thread.join();
 
+  if (failures != nullptr) {
+    std::vector<SpeciesFit> good;
+    for (int i = 0; i < num_species; ++i) {
+      if (errors[i].empty()) {
+        good.push_back(std::move(results[i]));
+      } else {
+        failures->push_back(errors[i]);
+      }
+    }
+    return good;
+  }
   std::string message;
   for (const std::string& error : errors) {
     if (error.empty()) continue;

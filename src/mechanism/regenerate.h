@@ -37,6 +37,12 @@ struct SpeciesFit {
 // the reader could not catch, an impossible fit request), each with its file location.
 std::vector<SpeciesFit> FitAllSpecies(const std::vector<Species>& species,
                                       const RegenerateOptions& options);
+// The same, but a species that cannot be computed is left out of the result and its message
+// (with file location) appended to *failures instead of throwing: for runs that must write
+// the good entries and list the bad ones.
+std::vector<SpeciesFit> FitAllSpecies(const std::vector<Species>& species,
+                                      const RegenerateOptions& options,
+                                      std::vector<std::string>* failures);
 
 // The entry of one fitted species, with provenance.
 Entry MakeEntry(const SpeciesFit& result, const RegenerateOptions& options);

@@ -42,6 +42,39 @@ constexpr double kTorsionMatchToleranceCm1 = 0.05;
 // Standard pressures accepted: the two conventions, within rounding of the written value.
 constexpr double kPressureRelativeTolerance = 1.0e-9;
 
+// Plausibility bands. Values outside them are typing mistakes or hostile input, and some of them
+// drive the statistical-mechanics engine into overflow (NaN or inf results) or into sums that
+// never end (docs/robustness.md lists the cases). Each band is wide around what real molecules
+// show; none of them bites on a real species.
+// Rotational constants (also torsional ones), cm^-1: H2 has the largest of any molecule,
+// B_e = 60.85 cm^-1 (Huber & Herzberg 1979, from memory); C60 is near 0.0028 cm^-1 (from memory).
+constexpr double kMinRotationalConstantCm1 = 1.0e-6;
+constexpr double kMaxRotationalConstantCm1 = 1.0e3;
+// Harmonic wavenumbers, cm^-1: the highest is H2's 4401 cm^-1 (Huber & Herzberg 1979, from
+// memory); a mode below 1 cm^-1 is numerical noise of a frequency calculation (common practice).
+constexpr double kMinWavenumberCm1 = 1.0;
+constexpr double kMaxWavenumberCm1 = 1.0e4;
+// Frequency scale factors in use lie between about 0.85 and 1.1 (common practice).
+constexpr double kMinFrequencyScale = 0.5;
+constexpr double kMaxFrequencyScale = 2.0;
+// Dunham-type constants, cm^-1 (magnitude): the strongest bond, CO, has D_0 near 89,500 cm^-1
+// (11.1 eV, from memory); every other constant is far smaller.
+constexpr double kMaxSpectroscopicConstantCm1 = 1.0e5;
+// Degeneracies (electronic levels, nuclear-spin weights): lumped atomic manifolds reach a few
+// hundred (common practice).
+constexpr double kMaxDegeneracy = 1.0e6;
+// Atoms of one element in a species: gas-phase species in mechanisms have tens (common practice);
+// the bound keeps 3N-6 and the atom total far from integer overflow.
+constexpr int kMaxAtomCount = 1000;
+// |formation enthalpy|, J/mol: gas-phase ions of light elements reach about 1e4 kJ/mol
+// (He2+: 7.6e3 kJ/mol from its ionisation energies, from memory).
+constexpr double kMaxFormationEnthalpyJPerMol = 1.0e8;
+// Torsional barriers and Fourier terms, J/mol: real barriers are below about 100 kJ/mol
+// (common practice); far above, the mode is a vibration, not a torsion.
+constexpr double kMaxTorsionBarrierJPerMol = 1.0e6;
+// |coordinate| in a geometry, angstrom: molecules are nanometres across.
+constexpr double kMaxCoordinateAngstrom = 1.0e3;
+
 const std::vector<std::string> kTopKeys = {"defaults", "species"};
 const std::vector<std::string> kDefaultsKeys = {"temperatures", "pressure", "fit-thresholds"};
 const std::vector<std::string> kSpeciesKeys = {"name",
@@ -213,6 +246,66 @@ std::string ShapeCountRule(Shape shape, int num_atoms) {
   return "";
 }
 
+// The first byte of `text` that is not valid UTF-8 or is a control character YAML forbids
+// (C0 controls other than tab, line feed and carriage return, and DEL), with its 1-based line and
+// column (columns count characters). nullopt when the whole text is clean. YAML streams are
+// Unicode (YAML 1.2, section 5.1); yaml-cpp does not check this itself, and a name with broken
+// bytes would otherwise reach the entries file, which must be UTF-8.
+struct BadByte {
+  unsigned char byte = 0;
+  int line = 1;
+  int column = 1;
+  bool control = false;
+};
+std::optional<BadByte> FindBadByte(const std::string& text) {
+  BadByte at;
+  std::size_t i = 0;
+  while (i < text.size()) {
+    const unsigned char lead = static_cast<unsigned char>(text[i]);
+    at.byte = lead;
+    if (lead < 0x80) {
+      if ((lead < 0x20 && lead != '\t' && lead != '\n' && lead != '\r') || lead == 0x7f) {
+        at.control = true;
+        return at;
+      }
+      ++i;
+      if (lead == '\n') {
+        ++at.line;
+        at.column = 1;
+      } else {
+        ++at.column;
+      }
+      continue;
+    }
+    // Well-formed sequences per the Unicode Standard, table 3-7: no overlong forms, no
+    // surrogates, nothing above U+10FFFF.
+    int length = 0;
+    unsigned char second_min = 0x80, second_max = 0xbf;
+    if (lead >= 0xc2 && lead <= 0xdf) {
+      length = 2;
+    } else if (lead >= 0xe0 && lead <= 0xef) {
+      length = 3;
+      if (lead == 0xe0) second_min = 0xa0;
+      if (lead == 0xed) second_max = 0x9f;
+    } else if (lead >= 0xf0 && lead <= 0xf4) {
+      length = 4;
+      if (lead == 0xf0) second_min = 0x90;
+      if (lead == 0xf4) second_max = 0x8f;
+    } else {
+      return at;
+    }
+    if (i + length > text.size()) return at;
+    for (int k = 1; k < length; ++k) {
+      const unsigned char next = static_cast<unsigned char>(text[i + k]);
+      const unsigned char low = k == 1 ? second_min : 0x80, high = k == 1 ? second_max : 0xbf;
+      if (next < low || next > high) return at;
+    }
+    i += static_cast<std::size_t>(length);
+    ++at.column;
+  }
+  return std::nullopt;
+}
+
 class FileParser {
  public:
   FileParser(const std::string& text,
@@ -258,6 +351,12 @@ class FileParser {
   std::optional<double> ReadAtLeast(const YAML::Node& value,
                                     const std::string& key,
                                     double minimum,
+                                    const std::string& what);
+  // A number within [minimum, maximum]; `what` names it ("a wavenumber in cm^-1").
+  std::optional<double> ReadInRange(const YAML::Node& value,
+                                    const std::string& key,
+                                    double minimum,
+                                    double maximum,
                                     const std::string& what);
   std::optional<int> ReadInteger(const YAML::Node& value,
                                  const std::string& key,
@@ -385,6 +484,21 @@ std::optional<double> FileParser::ReadAtLeast(const YAML::Node& value,
   const std::optional<double> number = ReadNumber(value, key, expected);
   if (!number) return std::nullopt;
   if (*number < minimum) {
+    Fail(value, key, Number(*number), expected);
+    return std::nullopt;
+  }
+  return number;
+}
+
+std::optional<double> FileParser::ReadInRange(const YAML::Node& value,
+                                              const std::string& key,
+                                              double minimum,
+                                              double maximum,
+                                              const std::string& what) {
+  const std::string expected = what + " within [" + Number(minimum) + ", " + Number(maximum) + "]";
+  const std::optional<double> number = ReadNumber(value, key, expected);
+  if (!number) return std::nullopt;
+  if (*number < minimum || *number > maximum) {
     Fail(value, key, Number(*number), expected);
     return std::nullopt;
   }
@@ -598,8 +712,11 @@ bool FileParser::ReadComposition(const YAML::Node& value, Species* species) {
     const std::optional<int> count = ReadInteger(it->second, key, "a positive whole atom count");
     if (!count) {
       ok = false;
-    } else if (*count < 1) {
-      Fail(it->second, key, std::to_string(*count), "a positive whole atom count");
+    } else if (*count < 1 || *count > kMaxAtomCount) {
+      Fail(it->second,
+           key,
+           std::to_string(*count),
+           "a positive whole atom count of at most " + std::to_string(kMaxAtomCount));
       ok = false;
     } else {
       species->composition.emplace_back(symbol, *count);
@@ -640,7 +757,11 @@ std::optional<std::vector<GeometryAtom>> FileParser::ReadGeometry(const YAML::No
     }
     double* coordinates[] = {&atom.x_angstrom, &atom.y_angstrom, &atom.z_angstrom};
     for (int k = 0; k < 3; ++k) {
-      const auto coordinate = ReadNumber(item[k + 1], key, "a coordinate in angstrom");
+      const auto coordinate = ReadInRange(item[k + 1],
+                                          key,
+                                          -kMaxCoordinateAngstrom,
+                                          kMaxCoordinateAngstrom,
+                                          "a coordinate in angstrom");
       if (coordinate) {
         *coordinates[k] = *coordinate;
       } else {
@@ -751,6 +872,28 @@ void FileParser::ReadRotation(const YAML::Node& node,
     }
   }
 
+  // Both sources end in rotational constants; check those against the plausibility band.
+  const std::string band = "rotational constants within [" + Number(kMinRotationalConstantCm1) +
+                           ", " + Number(kMaxRotationalConstantCm1) + "] cm^-1";
+  const auto outside_band = [](const std::vector<double>& values_cm1) {
+    return std::any_of(values_cm1.begin(), values_cm1.end(), [](double b) {
+      return !(b >= kMinRotationalConstantCm1 && b <= kMaxRotationalConstantCm1);
+    });
+  };
+  if (explicit_cm1 && outside_band(*explicit_cm1)) {
+    Fail(explicit_entry->value,
+         explicit_entry->key,
+         "rotational constants " + NumberList(*explicit_cm1, "{:.6g}") + " cm^-1",
+         band);
+    explicit_cm1.reset();
+  }
+  if (geometry_cm1 && outside_band(*geometry_cm1)) {
+    Fail(geometry_entry->value,
+         "geometry",
+         "rotational constants " + NumberList(*geometry_cm1, "{:.6g}") + " cm^-1",
+         band);
+    geometry_cm1.reset();
+  }
   if (explicit_cm1 && geometry_cm1) {
     double worst = 0.0;
     for (std::size_t k = 0; k < explicit_cm1->size(); ++k) {
@@ -811,6 +954,13 @@ void FileParser::ReadVibrations(const YAML::Node& node,
       ok = false;
     } else if (*wavenumber == 0.0) {
       Fail(item, key, "0 cm^-1", expected + " (translations and rotations are not listed)");
+      ok = false;
+    } else if (*wavenumber < kMinWavenumberCm1 || *wavenumber > kMaxWavenumberCm1) {
+      Fail(item,
+           key,
+           Number(*wavenumber) + " cm^-1",
+           "a wavenumber within [" + Number(kMinWavenumberCm1) + ", " +
+               Number(kMaxWavenumberCm1) + "] cm^-1");
       ok = false;
     } else {
       wavenumbers.push_back(*wavenumber);
@@ -874,6 +1024,12 @@ void FileParser::ReadElectronicLevels(const YAML::Node& value, Species* species)
     } else if (*degeneracy == 0.0) {
       Fail(item[1], key, "degeneracy 0", "a positive degeneracy");
       ok = false;
+    } else if (*degeneracy > kMaxDegeneracy) {
+      Fail(item[1],
+           key,
+           "degeneracy " + Number(*degeneracy),
+           "a degeneracy of at most " + Number(kMaxDegeneracy));
+      ok = false;
     }
     level.energy_cm1 = *energy;
     level.degeneracy = *degeneracy;
@@ -927,7 +1083,16 @@ std::optional<DiatomicState> FileParser::ReadDiatomicState(const YAML::Node& val
     } else {
       number = ReadNumber(entry->value, sub_key, "a " + unit);
     }
-    if (number) *field.target = *number;
+    const double bound =
+        std::string(field.name) == "degeneracy" ? kMaxDegeneracy : kMaxSpectroscopicConstantCm1;
+    if (number && std::fabs(*number) > bound) {
+      Fail(entry->value,
+           sub_key,
+           Number(*number),
+           "a " + unit + " of magnitude at most " + Number(bound));
+    } else if (number) {
+      *field.target = *number;
+    }
   }
   if (problems_->size() != before) return std::nullopt;
   return state;
@@ -1023,7 +1188,8 @@ void FileParser::ReadNuclearSpin(const Entry& entry,
       ok = false;
       continue;
     }
-    const auto value = ReadAtLeast(weight->value, key, 0.0, "a nuclear-spin weight");
+    const auto value =
+        ReadInRange(weight->value, key, 0.0, kMaxDegeneracy, "a nuclear-spin weight");
     if (value) {
       *target = *value;
     } else {
@@ -1119,11 +1285,25 @@ void FileParser::ReadTorsions(const Entry& entry,
     } else if (moment) {
       const auto i_red = ReadPositive(
           moment->value, key + ".reduced-moment", "reduced moment of inertia in amu*angstrom^2");
-      if (i_red)
-        torsion.rotational_constant_cm1 = constants::kRotationalConstantTimesInertia / *i_red;
+      if (i_red) {
+        const double b_cm1 = constants::kRotationalConstantTimesInertia / *i_red;
+        if (b_cm1 < kMinRotationalConstantCm1 || b_cm1 > kMaxRotationalConstantCm1) {
+          Fail(moment->value,
+               key + ".reduced-moment",
+               Number(*i_red) + " amu*angstrom^2 (B = " + fmt::format("{:.6g}", b_cm1) +
+                   " cm^-1)",
+               "a reduced moment giving B within [" + Number(kMinRotationalConstantCm1) + ", " +
+                   Number(kMaxRotationalConstantCm1) + "] cm^-1");
+        } else {
+          torsion.rotational_constant_cm1 = b_cm1;
+        }
+      }
     } else if (constant) {
-      const auto b = ReadPositive(
-          constant->value, key + ".rotational-constant", "rotational constant in cm^-1");
+      const auto b = ReadInRange(constant->value,
+                                 key + ".rotational-constant",
+                                 kMinRotationalConstantCm1,
+                                 kMaxRotationalConstantCm1,
+                                 "a rotational constant in cm^-1");
       if (b) torsion.rotational_constant_cm1 = *b;
     } else {
       Fail(item,
@@ -1157,6 +1337,12 @@ void FileParser::ReadTorsions(const Entry& entry,
              key + ".barrier",
              Describe(barrier->value) + " is negative",
              "a barrier height of at least 0");
+      } else if (v0 && *v0 > kMaxTorsionBarrierJPerMol) {
+        Fail(barrier->value,
+             key + ".barrier",
+             Describe(barrier->value),
+             "a barrier height of at most " + Number(kMaxTorsionBarrierJPerMol * 1.0e-3) +
+                 " kJ/mol");
       } else if (v0) {
         torsion.fourier_j_per_mol = {{torsion.symmetry, *v0}};
       }
@@ -1174,6 +1360,12 @@ void FileParser::ReadTorsions(const Entry& entry,
           const auto v_k = ReadEnergy(term[1], term_key);
           if (k && *k < 1) {
             Fail(term[0], term_key, std::to_string(*k), "a whole number of at least 1");
+          } else if (v_k && std::fabs(*v_k) > kMaxTorsionBarrierJPerMol) {
+            Fail(term[1],
+                 term_key,
+                 Describe(term[1]),
+                 "a term of magnitude at most " + Number(kMaxTorsionBarrierJPerMol * 1.0e-3) +
+                     " kJ/mol");
           } else if (k && v_k) {
             const bool repeated =
                 std::any_of(torsion.fourier_j_per_mol.begin(),
@@ -1262,7 +1454,15 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& node,
 
   if (const Entry* entry = entries.Find("formation-enthalpy")) {
     if (const auto h = ReadEnergy(entry->value, "formation-enthalpy")) {
-      species.formation_enthalpy_j_per_mol = *h;
+      if (std::fabs(*h) > kMaxFormationEnthalpyJPerMol) {
+        Fail(entry->value,
+             "formation-enthalpy",
+             Describe(entry->value),
+             "a formation enthalpy of magnitude at most " +
+                 Number(kMaxFormationEnthalpyJPerMol * 1.0e-3) + " kJ/mol");
+      } else {
+        species.formation_enthalpy_j_per_mol = *h;
+      }
     }
   } else {
     Fail(node, "formation-enthalpy", "missing", "the enthalpy of formation at 298.15 K");
@@ -1340,7 +1540,11 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& node,
   const bool vibrations_ok = problems_->size() == before_vibrations;
 
   if (const Entry* entry = entries.Find("frequency-scale")) {
-    if (const auto scale = ReadPositive(entry->value, "frequency-scale", "scale factor")) {
+    if (const auto scale = ReadInRange(entry->value,
+                                       "frequency-scale",
+                                       kMinFrequencyScale,
+                                       kMaxFrequencyScale,
+                                       "a scale factor")) {
       species.frequency_scale = *scale;
     }
   }
@@ -1387,9 +1591,29 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& node,
 }
 
 std::vector<Species> FileParser::Parse(std::vector<NameRecord>* names) {
+  if (const std::optional<BadByte> bad = FindBadByte(text_)) {
+    const SourceLocation where{file_name_, bad->line, bad->column};
+    problems_->Add(file_index_,
+                   bad->line,
+                   bad->column,
+                   where.ToString() +
+                       fmt::format(": found the byte 0x{:02x}, {}; expected UTF-8 text",
+                                   static_cast<unsigned>(bad->byte),
+                                   bad->control ? "a control character YAML does not allow"
+                                                : "which is not valid UTF-8"));
+    return {};
+  }
   YAML::Node root;
   try {
-    root = YAML::Load(text_);
+    std::vector<YAML::Node> documents = YAML::LoadAll(text_);
+    if (documents.size() > 1) {
+      // yaml-cpp's Load would silently keep the first document only.
+      FailText(documents[1].Mark(),
+               "",
+               "a second YAML document; expected one document per species file");
+      return {};
+    }
+    if (!documents.empty()) root = documents.front();
   } catch (const YAML::Exception& error) {
     // ParserException (and DeepRecursion, one of its kinds) carries the mark of the syntax error.
     FailText(

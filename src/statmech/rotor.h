@@ -77,7 +77,7 @@ class RotorContribution {
 
 // Energy levels (K, from the ground) of an asymmetric rigid rotor for one J, by diagonalising
 // H = A Ja^2 + B Jb^2 + C Jc^2 in the symmetric-top basis |J,K> (K along a); the even-K and
-// odd-K blocks are tridiagonal [Gordy & Cook 1984, ch. 7]. Constants in kelvin. Each level has
+// odd-K blocks are tridiagonal [GordyCook1984, ch. 7]. Constants in kelvin. Each level has
 // degeneracy 2J+1 (M), not included here.
 std::vector<double> AsymmetricTopLevels(int j, double a_k, double b_k, double c_k);
 

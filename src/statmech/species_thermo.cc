@@ -101,10 +101,6 @@ SpeciesThermo::SpeciesThermo(const Species& species) : model_(std::make_unique<M
     if (species.shape != Shape::kLinear || species.NumAtoms() != 2) {
       fail("diatomic constants need a diatomic (shape linear, 2 atoms)");
     }
-    if (species.diatomic_states.size() > 1 && species.electronic_levels.size() > 1) {
-      fail("electronic levels given both as a list and as diatomic states; expected the states "
-           "only");
-    }
     ParityLevels levels;
     try {
       levels = DiatomicLevels(species.diatomic_states);
@@ -116,13 +112,19 @@ SpeciesThermo::SpeciesThermo(const Species& species) : model_(std::make_unique<M
     } else {
       model.parity_sum.emplace(std::move(levels), species.symmetry_number);
     }
-    // With a single state, further listed electronic levels share its rovibrational ladder (a
-    // common approximation); the ground degeneracy is already in the state.
-    const ElectronicLevel& ground = species.electronic_levels.front();
-    model.electronic_levels.clear();
-    for (const ElectronicLevel& level : species.electronic_levels) {
-      model.electronic_levels.push_back({(level.energy_cm1 - ground.energy_cm1) * kWavenumberToKelvin,
-                                         level.degeneracy / ground.degeneracy});
+    // Several states carry their own energies and degeneracies (the reader mirrors them into
+    // electronic_levels, which is then ignored). With a single state, further listed electronic
+    // levels share its rovibrational ladder (a common approximation); the ground degeneracy is
+    // already in the state, so the list enters relative to its first level.
+    model.electronic_levels = {{0.0, 1.0}};
+    if (species.diatomic_states.size() == 1 && !species.electronic_levels.empty()) {
+      const ElectronicLevel ground = species.electronic_levels.front();
+      model.electronic_levels.clear();
+      for (const ElectronicLevel& level : species.electronic_levels) {
+        model.electronic_levels.push_back(
+            {(level.energy_cm1 - ground.energy_cm1) * kWavenumberToKelvin,
+             level.degeneracy / ground.degeneracy});
+      }
     }
   } else {
     const std::vector<double>& constants_cm1 = species.rotational_constants_cm1;

@@ -23,9 +23,11 @@ inline constexpr double kMinTemperatureK = 10.0;
 inline constexpr double kMaxTemperatureK = 20000.0;
 
 // Exact thermodynamic functions of one species: sums of the contributions of translation,
-// electronic levels, rotation and vibration (docs/theory.md). Construction does the
-// temperature-independent work (rotor levels, torsion levels); evaluation is cheap and
-// thread-safe.
+// electronic levels, rotation (with nuclear-spin statistics when given), vibration, hindered
+// internal rotors (each replacing one harmonic mode) and, for a diatomic with Dunham-type
+// constants, the rovibrational direct sum that replaces rotor, vibration and electronic list
+// (docs/theory.md). Construction does the temperature-independent work (all level lists and
+// diagonalisations); evaluation is only exponentials, and thread-safe.
 class SpeciesThermo {
  public:
   // Throws Error (naming the species and its file location) when the model cannot be built.
