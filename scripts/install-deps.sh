@@ -6,8 +6,9 @@ set -euo pipefail
 
 packages=(g++ cmake make pkg-config libeigen3-dev libceres-dev libcli11-dev libyaml-cpp-dev libfmt-dev)
 if [[ "${1:-}" == "--tests" ]]; then
-  # catch2: the unit-test framework; python3-ase: the reference library the engine is checked against.
-  packages+=(catch2 python3-ase)
+  # catch2: the unit-test framework; python3-ase: the reference library the engine is checked against;
+  # chromium: renders the report's HTML page headless, to check that a real browser draws every plot.
+  packages+=(catch2 python3-ase chromium)
 fi
 
 missing=()

@@ -1,13 +1,17 @@
 // SPDX-License-Identifier: MIT
 // The sevenfold executable run as a user runs it: output, exit status and error text.
+#include <algorithm>
 #include <cstdio>
 #include <cstdlib>
 #include <filesystem>
 #include <fstream>
+#include <map>
 #include <sstream>
 #include <string>
+#include <sys/stat.h>
 #include <sys/wait.h>
 #include <unistd.h>
+#include <vector>
 
 #include <catch2/catch.hpp>
 
@@ -101,6 +105,212 @@ TEST_CASE("usage errors exit 2 and help exits 0", "[cli]") {
   const RunResult help = Run("--help-all");
   CHECK(help.exit_status == 0);
   CHECK_THAT(help.out, Catch::Contains("table"));
+}
+
+}  // namespace
+
+// fit and check, run as a CI job runs them.
+namespace {
+
+// A fresh directory under the system temporary directory, removed with everything in it.
+class ScratchDir {
+ public:
+  ScratchDir() {
+    std::string pattern =
+        (std::filesystem::temp_directory_path() / "sevenfold_check_cli_XXXXXX").string();
+    REQUIRE(mkdtemp(pattern.data()) != nullptr);
+    path_ = pattern;
+  }
+  ~ScratchDir() {
+    std::error_code ignored;
+    std::filesystem::remove_all(path_, ignored);
+  }
+  std::string operator/(const std::string& name) const { return (path_ / name).string(); }
+  std::vector<std::string> Names() const {
+    std::vector<std::string> names;
+    for (const auto& item : std::filesystem::directory_iterator(path_)) {
+      names.push_back(item.path().filename().string());
+    }
+    std::sort(names.begin(), names.end());
+    return names;
+  }
+
+ private:
+  std::filesystem::path path_;
+};
+
+// tests/data/reference-species.yaml with N2's fundamental 2329.9 cm^-1 replaced by its harmonic
+// wavenumber we = 2358.57 cm^-1 (Huber & Herzberg 1979, from memory): an edit a user might make.
+std::string EditedReferenceSpecies() {
+  std::string text = ReadWhole(std::string(SEVENFOLD_SOURCE_DIR) +
+                               "/tests/data/reference-species.yaml");
+  const std::size_t at = text.find("vibrations: [2329.9]");
+  REQUIRE(at != std::string::npos);
+  return text.replace(at, std::string("vibrations: [2329.9]").size(), "vibrations: [2358.57]");
+}
+
+void WriteWhole(const std::string& path, const std::string& text) {
+  std::ofstream out(path);
+  out << text;
+  REQUIRE(out.good());
+}
+
+// --mid auto: with it every reference species meets its quality thresholds (with the file's fixed
+// 1000 K, N2 and CO2 do not), so check has nothing to report on fresh entries.
+const std::string kReference = "tests/data/reference-species.yaml --mid auto -q";
+
+TEST_CASE("check exits 0 on freshly fitted entries and lists every species in its JUnit report",
+          "[cli]") {
+  const ScratchDir dir;
+  REQUIRE(Run("fit " + kReference + " -o " + (dir / "m.entries")).exit_status == 0);
+  const RunResult run =
+      Run("check " + kReference + " --entries " + (dir / "m.entries") + " --junit " +
+          (dir / "report.xml"));
+  CHECK(run.exit_status == 0);
+  CHECK_THAT(run.out, Catch::Contains("4 species, 4 entries"));
+  CHECK_THAT(run.out, Catch::Contains("all match"));
+  const std::string xml = ReadWhole(dir / "report.xml");
+  CHECK_THAT(xml, Catch::StartsWith("<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n<testsuite "));
+  CHECK_THAT(xml, Catch::Contains("tests=\"4\" failures=\"0\""));
+  for (const char* name : {"N2", "CO2", "H2O", "Ar"}) {
+    CHECK_THAT(xml, Catch::Contains(std::string("name=\"") + name + "\"/>"));
+  }
+  CHECK(xml.find("<failure") == std::string::npos);
+  CHECK(dir.Names() == std::vector<std::string>{"m.entries", "report.xml"});
+}
+
+TEST_CASE("check exits 1 naming the stale species after a vibration is edited", "[cli]") {
+  const ScratchDir dir;
+  REQUIRE(Run("fit " + kReference + " -o " + (dir / "m.entries")).exit_status == 0);
+  WriteWhole(dir / "edited.yaml", EditedReferenceSpecies());
+  const RunResult run = Run("check " + (dir / "edited.yaml") + " --mid auto -q --entries " +
+                            (dir / "m.entries") + " --junit " + (dir / "report.xml"));
+  CHECK(run.exit_status == 1);
+  // One line for the finding (location, species, kind), then the count line.
+  CHECK_THAT(run.out, Catch::StartsWith((dir / "edited.yaml") + ":8:5: N2: stale: input changed"));
+  CHECK_THAT(run.out, Catch::EndsWith("\ncheck: 1 finding for 1 of 4 species in " +
+                                      (dir / "m.entries") + "\n"));
+  const std::string xml = ReadWhole(dir / "report.xml");
+  CHECK_THAT(xml, Catch::Contains("tests=\"4\" failures=\"1\""));
+  CHECK_THAT(xml, Catch::Contains("name=\"N2\">\n    <failure type=\"stale\" message=\"stale: "));
+  CHECK_THAT(xml, Catch::Contains("name=\"CO2\"/>"));
+}
+
+TEST_CASE("check exits 2 on a malformed species file or entries file", "[cli]") {
+  const ScratchDir dir;
+  REQUIRE(Run("fit " + kReference + " -o " + (dir / "m.entries")).exit_status == 0);
+  const RunResult bad_species = Run("check tests/data/bad-vibration.yaml --entries " +
+                                    (dir / "m.entries") + " --junit " + (dir / "report.xml"));
+  CHECK(bad_species.exit_status == 2);
+  CHECK_THAT(bad_species.err, Catch::StartsWith("error: tests/data/bad-vibration.yaml:9:"));
+  CHECK(bad_species.out.empty());
+
+  WriteWhole(dir / "bad.entries", "sevenfold-entries 2\n");
+  const RunResult bad_entries =
+      Run("check " + kReference + " --entries " + (dir / "bad.entries"));
+  CHECK(bad_entries.exit_status == 2);
+  CHECK_THAT(bad_entries.err, Catch::Contains((dir / "bad.entries") + ":1:19: found format version 2"));
+  // No report is written for input that could not be read.
+  CHECK(dir.Names() == std::vector<std::string>{"bad.entries", "m.entries"});
+}
+
+TEST_CASE("fit replaces its output by rename and a failed run leaves the old file untouched",
+          "[cli]") {
+  const ScratchDir dir;
+  const std::string output = dir / "m.entries";
+  REQUIRE(Run("fit " + kReference + " -o " + output).exit_status == 0);
+  const std::string first = ReadWhole(output);
+  const auto first_permissions = std::filesystem::status(output).permissions();
+  struct stat before {};
+  REQUIRE(stat(output.c_str(), &before) == 0);
+
+  // A successful rewrite puts a new file in place (rename of a temporary: a new inode) with the
+  // same bytes.
+  REQUIRE(Run("fit " + kReference + " -o " + output).exit_status == 0);
+  struct stat after {};
+  REQUIRE(stat(output.c_str(), &after) == 0);
+  CHECK(after.st_ino != before.st_ino);
+  CHECK(ReadWhole(output) == first);
+  CHECK(std::filesystem::status(output).permissions() == first_permissions);
+
+  // Failed runs: a malformed species file, and a species the fitter refuses (a mid temperature
+  // leaving fewer than 8 grid points below it).
+  const RunResult malformed = Run("fit tests/data/bad-vibration.yaml -q -o " + output);
+  CHECK(malformed.exit_status == 2);
+  std::string impossible = ReadWhole(std::string(SEVENFOLD_SOURCE_DIR) +
+                                     "/tests/data/reference-species.yaml");
+  impossible.replace(impossible.find("mid: 1000"), std::string("mid: 1000").size(), "mid: 201");
+  WriteWhole(dir / "impossible.yaml", impossible);
+  const RunResult refused = Run("fit " + (dir / "impossible.yaml") + " -q -o " + output);
+  CHECK(refused.exit_status == 2);
+  CHECK_THAT(refused.err, Catch::Contains("impossible.yaml:8:5: species 'N2'"));
+  CHECK(ReadWhole(output) == first);
+  struct stat untouched {};
+  REQUIRE(stat(output.c_str(), &untouched) == 0);
+  CHECK(untouched.st_ino == after.st_ino);
+  // No temporary file is left behind.
+  CHECK(dir.Names() == std::vector<std::string>{"impossible.yaml", "m.entries"});
+}
+
+TEST_CASE("fit writes byte-identical files with one and with two jobs", "[cli]") {
+  const ScratchDir dir;
+  REQUIRE(Run("fit " + kReference + " --jobs 1 -o " + (dir / "one.entries")).exit_status == 0);
+  REQUIRE(Run("fit " + kReference + " --jobs 2 -o " + (dir / "two.entries")).exit_status == 0);
+  const std::string one = ReadWhole(dir / "one.entries");
+  CHECK_THAT(one, Catch::StartsWith("sevenfold-entries 1\n"));
+  CHECK(one == ReadWhole(dir / "two.entries"));
+}
+
+// Parses the CSV of `table` or `eval` into rows keyed by species and temperature.
+struct CsvRow {
+  double cp = 0, s = 0, dh = 0, h = 0, g = 0;
+};
+std::map<std::pair<std::string, double>, CsvRow> ParseTableCsv(const std::string& text) {
+  std::map<std::pair<std::string, double>, CsvRow> rows;
+  std::istringstream lines(text);
+  std::string line;
+  std::getline(lines, line);  // header
+  while (std::getline(lines, line)) {
+    const std::size_t comma = line.find(',');
+    REQUIRE(comma != std::string::npos);
+    CsvRow row;
+    double t = 0;
+    REQUIRE(std::sscanf(line.c_str() + comma + 1, "%lf,%lf,%lf,%lf,%lf,%lf", &t, &row.cp, &row.s,
+                        &row.dh, &row.h, &row.g) == 6);
+    rows[{line.substr(0, comma), t}] = row;
+  }
+  return rows;
+}
+
+TEST_CASE("eval of the fitted demo entries reproduces the exact tables within the thresholds",
+          "[cli]") {
+  // The default quality thresholds (docs/fitting.md): |dCp|/Cp <= 0.5 %, |dH|/RT <= 0.002,
+  // |dS|/R <= 0.002. The fit meets them on its dense grid; the table's round temperatures lie
+  // in the same ranges, so the same bounds must hold there.
+  const ScratchDir dir;
+  const std::string entries = dir / "demo.entries";
+  const RunResult fit = Run("fit species/*.yaml -q -o " + entries);
+  REQUIRE(fit.exit_status == 0);
+  const RunResult exact = Run("table species/*.yaml --format csv");
+  const RunResult fitted = Run("eval " + entries + " --format csv");
+  REQUIRE(exact.exit_status == 0);
+  REQUIRE(fitted.exit_status == 0);
+  CHECK(exact.out.substr(0, exact.out.find('\n')) == fitted.out.substr(0, fitted.out.find('\n')));
+  const auto exact_rows = ParseTableCsv(exact.out);
+  const auto fitted_rows = ParseTableCsv(fitted.out);
+  REQUIRE(exact_rows.size() == fitted_rows.size());
+  REQUIRE(exact_rows.size() > 36 * 10);
+  constexpr double kGasConstant = 8.314462618;  // CODATA 2018, J/(mol K)
+  for (const auto& [key, row] : exact_rows) {
+    const auto found = fitted_rows.find(key);
+    REQUIRE(found != fitted_rows.end());
+    const CsvRow& fit_row = found->second;
+    const double t = key.second;
+    INFO(key.first << " at " << t << " K");
+    CHECK(std::abs(fit_row.cp - row.cp) / row.cp <= 0.005);
+    CHECK(std::abs(fit_row.h - row.h) * 1000.0 / (kGasConstant * t) <= 0.002);
+    CHECK(std::abs(fit_row.s - row.s) / kGasConstant <= 0.002);
+  }
 }
 
 }  // namespace

@@ -6,8 +6,10 @@
 
 #include <CLI/CLI.hpp>
 
+#include "cli/check_command.h"
 #include "cli/eval_command.h"
 #include "cli/fit_command.h"
+#include "cli/report_command.h"
 #include "cli/table_command.h"
 #include "core/error.h"
 
@@ -22,6 +24,8 @@ int main(int argc, char** argv) {
   sevenfold::cli::SetupTableCommand(app, exit_status);
   sevenfold::cli::SetupFitCommand(app, exit_status);
   sevenfold::cli::SetupEvalCommand(app, exit_status);
+  sevenfold::cli::SetupReportCommand(app, exit_status);
+  sevenfold::cli::SetupCheckCommand(app, exit_status);
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {

@@ -1,0 +1,400 @@
+// SPDX-License-Identifier: MIT
+// Tests of the mechanism module: regenerating every species (deterministic whatever the thread
+// count, in input order, all errors reported) and checking committed entries against it.
+#include <algorithm>
+#include <cmath>
+#include <fstream>
+#include <limits>
+#include <sstream>
+#include <string>
+#include <vector>
+
+#include <catch2/catch.hpp>
+
+#include "core/error.h"
+#include "entries/entries.h"
+#include "fit/fitter.h"
+#include "fit/polynomial.h"
+#include "mechanism/check.h"
+#include "mechanism/regenerate.h"
+#include "species/species.h"
+#include "species/species_reader.h"
+
+namespace sevenfold {
+namespace {
+
+using Catch::Matchers::Contains;
+
+// The name used for the reference species in locations; Run-from-source-dir style.
+const char* const kReferenceName = "tests/data/reference-species.yaml";
+
+// The text of tests/data/reference-species.yaml: N2, CO2, H2O and Ar with sourced constants (see
+// the file's header). Species blocks start at lines 8, 15, 22 and 29, column 5.
+std::string ReferenceText() {
+  std::ifstream in(std::string(SEVENFOLD_SOURCE_DIR) + "/" + kReferenceName);
+  REQUIRE(in.good());
+  std::stringstream buffer;
+  buffer << in.rdbuf();
+  return buffer.str();
+}
+
+// `text` with its one occurrence of `from` replaced by `to` (a REQUIRE fails if it is not once).
+std::string ReplaceOnce(const std::string& text, const std::string& from, const std::string& to) {
+  const std::size_t at = text.find(from);
+  REQUIRE(at != std::string::npos);
+  REQUIRE(text.find(from, at + 1) == std::string::npos);
+  return text.substr(0, at) + to + text.substr(at + from.size());
+}
+
+RegenerateOptions Jobs(int num_jobs) {
+  RegenerateOptions options;
+  options.num_jobs = num_jobs;
+  return options;
+}
+
+// The options the checks run with: the mid temperature chosen automatically, with which every
+// reference species meets the default quality thresholds (with the file's fixed 1000 K, N2 and
+// CO2 miss them), so that a finding of kind fit-fails appears only where a test provokes it.
+RegenerateOptions Base(int num_jobs) {
+  RegenerateOptions options = Jobs(num_jobs);
+  options.force_auto_mid = true;
+  return options;
+}
+
+// The entries file as fit writes it and check reads it: through the text format, so that the
+// check sees exactly what a committed file holds.
+EntriesFile Committed(const std::vector<SpeciesFit>& fits, const RegenerateOptions& options) {
+  return ParseEntries(FormatEntries(MakeEntriesFile(fits, options)), "committed.entries");
+}
+
+Entry* FindEntry(EntriesFile& file, const std::string& name) {
+  for (Entry& entry : file.entries) {
+    if (entry.name == name) return &entry;
+  }
+  FAIL("no entry " << name);
+  return nullptr;
+}
+
+// The kinds of the findings, as text, in order: "N2 stale", ...
+std::vector<std::string> Summary(const CheckResult& result) {
+  std::vector<std::string> lines;
+  for (const Finding& finding : result.findings) {
+    lines.push_back(finding.species + " " + ToString(finding.kind));
+  }
+  return lines;
+}
+
+TEST_CASE("regenerated entries are byte-identical for 1, 2 and 4 threads", "[mechanism]") {
+  const std::vector<Species> species = ReadSpeciesText(ReferenceText(), kReferenceName);
+  // Both the fixed mid temperature of the file and the automatic choice (scan + Ceres), which
+  // has the most floating-point work that could depend on the thread.
+  for (const bool automatic_mid : {false, true}) {
+    std::vector<std::string> texts;
+    for (const int num_jobs : {1, 2, 4}) {
+      RegenerateOptions options = Jobs(num_jobs);
+      options.force_auto_mid = automatic_mid;
+      texts.push_back(FormatEntries(MakeEntriesFile(FitAllSpecies(species, options), options)));
+    }
+    CHECK(texts[0] == texts[1]);
+    CHECK(texts[0] == texts[2]);
+    CHECK_THAT(texts[0], Contains("species \"N2\""));
+  }
+}
+
+TEST_CASE("regenerated results come back in input order", "[mechanism]") {
+  const std::vector<Species> species = ReadSpeciesText(ReferenceText(), kReferenceName);
+  REQUIRE(species.size() == 4);
+  const std::vector<SpeciesFit> fits = FitAllSpecies(species, Jobs(4));
+  REQUIRE(fits.size() == species.size());
+  for (std::size_t i = 0; i < species.size(); ++i) {
+    CHECK(fits[i].species == &species[i]);
+    CHECK(fits[i].fit.polynomial.t_high_k == species[i].temperatures.high_k);
+  }
+  const EntriesFile file = MakeEntriesFile(fits, Jobs(4));
+  REQUIRE(file.entries.size() == 4);
+  CHECK(file.entries[0].name == "N2");
+  CHECK(file.entries[1].name == "CO2");
+  CHECK(file.entries[2].name == "H2O");
+  CHECK(file.entries[3].name == "Ar");
+}
+
+TEST_CASE("errors of several species are all reported with their locations", "[mechanism]") {
+  // A fixed mid temperature just inside the range passes the reader but leaves fewer than
+  // kMinPointsPerRange grid points on one side, which only the fitter can refuse.
+  std::string text = ReferenceText();
+  text = ReplaceOnce(text, "    vibrations: [2329.9]\n",
+                     "    vibrations: [2329.9]\n    temperatures: {mid: 201}\n");
+  text = ReplaceOnce(text, "    vibrations: [3657.1, 1594.7, 3755.9]\n",
+                     "    vibrations: [3657.1, 1594.7, 3755.9]\n    temperatures: {mid: 5999}\n");
+  const std::vector<Species> species = ReadSpeciesText(text, "two-bad.yaml");
+  REQUIRE(species.size() == 4);
+  for (const int num_jobs : {1, 3}) {
+    try {
+      FitAllSpecies(species, Jobs(num_jobs));
+      FAIL("FitAllSpecies accepted two impossible fits");
+    } catch (const Error& e) {
+      const std::string message = e.what();
+      // N2 starts at line 8, H2O (after the line added to N2) at line 23.
+      CHECK_THAT(message, Contains("two-bad.yaml:8:5: species 'N2'"));
+      CHECK_THAT(message, Contains("two-bad.yaml:23:5: species 'H2O'"));
+      CHECK(message.find("CO2") == std::string::npos);
+      CHECK(message.find("'Ar'") == std::string::npos);
+      // In input order, one line each.
+      CHECK(message.find("'N2'") < message.find("'H2O'"));
+      CHECK(std::count(message.begin(), message.end(), '\n') == 1);
+    }
+  }
+}
+
+TEST_CASE("check finds nothing in freshly regenerated entries", "[mechanism]") {
+  const std::vector<Species> species = ReadSpeciesText(ReferenceText(), kReferenceName);
+  const std::vector<SpeciesFit> fits = FitAllSpecies(species, Base(2));
+  const CheckResult result = CheckEntries(fits, Committed(fits, Base(2)), Base(1));
+  CHECK(result.Passed());
+  CHECK(result.findings.empty());
+  CHECK(result.names == std::vector<std::string>{"N2", "CO2", "H2O", "Ar"});
+  // A second regeneration with another thread count is checked clean against the first.
+  const std::vector<SpeciesFit> again = FitAllSpecies(species, Base(4));
+  CHECK(CheckEntries(again, Committed(fits, Base(2)), Base(4)).Passed());
+}
+
+TEST_CASE("check reports a species without entry and an entry without species", "[mechanism]") {
+  const std::vector<Species> species = ReadSpeciesText(ReferenceText(), kReferenceName);
+  const std::vector<SpeciesFit> fits = FitAllSpecies(species, Base(2));
+  const EntriesFile complete = Committed(fits, Base(2));
+
+  SECTION("missing") {
+    EntriesFile without_co2 = complete;
+    without_co2.entries.erase(without_co2.entries.begin() + 1);
+    const CheckResult result = CheckEntries(fits, without_co2, Base(2));
+    REQUIRE(Summary(result) == std::vector<std::string>{"CO2 missing"});
+    CHECK(result.findings[0].location.ToString() == std::string(kReferenceName) + ":15:5");
+    CHECK(result.names.size() == 4);
+  }
+  SECTION("extra") {
+    // Ar removed from the species list, still in the entries file (its block starts at line 28).
+    std::vector<Species> fewer(species.begin(), species.begin() + 3);
+    const std::vector<SpeciesFit> fewer_fits = FitAllSpecies(fewer, Base(2));
+    const CheckResult result = CheckEntries(fewer_fits, complete, Base(2));
+    REQUIRE(Summary(result) == std::vector<std::string>{"Ar extra"});
+    CHECK(result.findings[0].location.file == "committed.entries");
+    CHECK(result.findings[0].location.line == complete.entries[3].location.line);
+    CHECK(result.findings[0].location.line > 0);
+    CHECK(result.names == std::vector<std::string>{"N2", "CO2", "H2O", "Ar"});
+  }
+}
+
+TEST_CASE("check reports an entry that was not regenerated after a vibration was edited",
+          "[mechanism]") {
+  const std::string original = ReferenceText();
+  const std::vector<Species> before = ReadSpeciesText(original, kReferenceName);
+  const EntriesFile committed = Committed(FitAllSpecies(before, Base(2)), Base(2));
+
+  // The edit a user might make: N2's fundamental 2329.9 cm^-1 replaced by its harmonic
+  // wavenumber we = 2358.57 cm^-1 (Huber & Herzberg 1979, from memory).
+  const std::vector<Species> after = ReadSpeciesText(
+      ReplaceOnce(original, "vibrations: [2329.9]", "vibrations: [2358.57]"), kReferenceName);
+  CHECK(after[0].input_digest != before[0].input_digest);
+  CHECK(after[1].input_digest == before[1].input_digest);
+  const CheckResult result = CheckEntries(FitAllSpecies(after, Base(2)), committed, Base(2));
+  REQUIRE(Summary(result) == std::vector<std::string>{"N2 stale"});
+  CHECK(result.findings[0].location.ToString() == std::string(kReferenceName) + ":8:5");
+  CHECK_THAT(result.findings[0].message, Contains("input changed"));
+  CHECK_THAT(result.findings[0].message, Contains(before[0].input_digest.substr(0, 12)));
+  CHECK_THAT(result.findings[0].message, Contains(after[0].input_digest.substr(0, 12)));
+}
+
+TEST_CASE("check compares curves within a tolerance far above rounding", "[mechanism]") {
+  const std::vector<Species> species = ReadSpeciesText(ReferenceText(), kReferenceName);
+  const std::vector<SpeciesFit> fits = FitAllSpecies(species, Base(2));
+  EntriesFile committed = Committed(fits, Base(2));
+  Entry& co2 = *FindEntry(committed, "CO2");
+
+  SECTION("a change of one unit in the last place of every coefficient is not a finding") {
+    for (NasaCoefficients* a : {&co2.polynomial.low, &co2.polynomial.high}) {
+      for (double& value : *a) value = std::nextafter(value, std::numeric_limits<double>::max());
+    }
+    const CheckResult result = CheckEntries(fits, committed, Base(2));
+    CHECK(result.Passed());
+  }
+  SECTION("a Cp coefficient changed by 1e-4 relative is a curve change in Cp") {
+    // a1 of the low range carries most of Cp/R near t_low, so the relative change of Cp there
+    // is of the order of the perturbation, 100 times the 1e-6 tolerance.
+    co2.polynomial.low[0] *= 1.0 + 1e-4;
+    const CheckResult result = CheckEntries(fits, committed, Base(2));
+    REQUIRE(Summary(result) == std::vector<std::string>{"CO2 curve-changed"});
+    CHECK_THAT(result.findings[0].message, Contains("Cp by"));
+    CHECK_THAT(result.findings[0].location.ToString(), Contains(":15:5"));
+  }
+  SECTION("the enthalpy constant changed by 1e-4 relative is a curve change in H only") {
+    // a6/T alone changes H/RT: |a6| ~ 5e4 K gives 5 / T, far beyond 1e-6 at any T <= 6000 K.
+    co2.polynomial.high[5] *= 1.0 + 1e-4;
+    const CheckResult result = CheckEntries(fits, committed, Base(2));
+    REQUIRE(Summary(result) == std::vector<std::string>{"CO2 curve-changed"});
+    CHECK_THAT(result.findings[0].message, Contains("H by"));
+    CHECK(result.findings[0].message.find("Cp by") == std::string::npos);
+    CHECK(result.findings[0].message.find("S by") == std::string::npos);
+  }
+  SECTION("the entropy constant shifted by 1e-5 is a curve change in S only") {
+    co2.polynomial.high[6] += 1e-5;
+    const CheckResult result = CheckEntries(fits, committed, Base(2));
+    REQUIRE(Summary(result) == std::vector<std::string>{"CO2 curve-changed"});
+    CHECK_THAT(result.findings[0].message, Contains("S by 1e-05 R"));
+  }
+  SECTION("a moved mid temperature is a range change") {
+    co2.polynomial.t_mid_k = 1100.0;
+    const CheckResult result = CheckEntries(fits, committed, Base(2));
+    REQUIRE(!result.findings.empty());
+    CHECK(result.findings[0].kind == FindingKind::kRangeChanged);
+    CHECK_THAT(result.findings[0].message, Contains("200 1100 6000 K in the entry"));
+  }
+  SECTION("a hand-edited formation enthalpy is a data change") {
+    co2.formation_enthalpy_j_per_mol = -393520.0;  // JANAF's -393.52 kJ/mol (from memory)
+    const CheckResult result = CheckEntries(fits, committed, Base(2));
+    REQUIRE(Summary(result) == std::vector<std::string>{"CO2 data-changed"});
+    CHECK_THAT(result.findings[0].message, Contains("-393520 J/mol in the entry, -393510 J/mol now"));
+  }
+}
+
+TEST_CASE("rounding-level changes of the exact curves are not a curve change", "[mechanism]") {
+  // What another compiler or libm could do: every exact value a couple of units in the last
+  // place off (4e-16 relative, alternating in sign), refitted at the same mid temperature.
+  constexpr double kRoundingRelative = 4e-16;
+  const std::vector<Species> species = ReadSpeciesText(ReferenceText(), kReferenceName);
+  const std::vector<SpeciesFit> fits = FitAllSpecies(species, Base(2));
+  const EntriesFile committed = Committed(fits, Base(2));
+  std::vector<SpeciesFit> perturbed = fits;
+  for (SpeciesFit& fit : perturbed) {
+    int sign = 1;
+    for (std::vector<double>* values :
+         {&fit.exact.cp_over_r, &fit.exact.h_over_rt, &fit.exact.s_over_r}) {
+      for (double& value : *values) {
+        value *= 1.0 + sign * kRoundingRelative;
+        sign = -sign;
+      }
+    }
+    FitOptions options = FitOptionsFor(*fit.species, Base(2));
+    options.t_mid_k = fit.fit.polynomial.t_mid_k;
+    const FitResult refit = FitTwoRange(fit.exact, options, fit.species->thresholds);
+    // The perturbation did reach the coefficients, so the check below is not trivially clean.
+    CHECK(refit.polynomial.low != fit.fit.polynomial.low);
+    fit.fit = refit;
+  }
+  const CheckResult result = CheckEntries(perturbed, committed, Base(2));
+  CHECK(result.Passed());
+  CHECK(Summary(result).empty());
+}
+
+TEST_CASE("curve differences are measured where they are largest", "[mechanism]") {
+  const std::vector<Species> species = ReadSpeciesText(ReferenceText(), kReferenceName);
+  const std::vector<SpeciesFit> fits = FitAllSpecies(species, Base(2));
+  const TwoRangePolynomial& p = fits[0].fit.polynomial;
+  const CurveDifference none = CompareCurves(p, p, p.t_low_k, p.t_high_k);
+  CHECK(none.max_cp_relative == 0.0);
+  CHECK(none.max_h_over_rt == 0.0);
+  CHECK(none.max_s_over_r == 0.0);
+  // A shift of a6 by d changes H/RT by d / T: largest at the lowest temperature compared.
+  TwoRangePolynomial shifted = p;
+  shifted.low[5] += 1.0;
+  const CurveDifference d = CompareCurves(shifted, p, p.t_low_k, p.t_high_k);
+  CHECK(d.max_h_t_k == p.t_low_k);
+  CHECK(d.max_h_over_rt == Approx(1.0 / p.t_low_k).epsilon(1e-9));
+  CHECK(d.max_cp_relative == 0.0);
+  CHECK(d.max_s_over_r == 0.0);
+}
+
+TEST_CASE("check reports fits that miss their quality thresholds", "[mechanism]") {
+  const std::string original = ReferenceText();
+  SECTION("committed and regenerated fits both fail") {
+    // A Cp threshold of 1e-5 is far below what 2 x 7 coefficients can follow over 200 to 6000 K
+    // for N2 (its fit errors are of order 1e-3, docs/fitting.md), so the fit must miss it.
+    const std::vector<Species> strict = ReadSpeciesText(
+        ReplaceOnce(original, "    vibrations: [2329.9]\n",
+                    "    vibrations: [2329.9]\n    fit-thresholds: {cp: 0.00001}\n"),
+        kReferenceName);
+    const std::vector<SpeciesFit> fits = FitAllSpecies(strict, Base(2));
+    REQUIRE_FALSE(fits[0].fit.meets_thresholds);
+    const CheckResult result = CheckEntries(fits, Committed(fits, Base(2)), Base(2));
+    REQUIRE(Summary(result) == std::vector<std::string>{"N2 fit-fails"});
+    CHECK_THAT(result.findings[0].message, Contains("committed entry and regeneration"));
+    CHECK_THAT(result.findings[0].message, Contains("exceeds 0.001 %"));
+  }
+  SECTION("a committed entry marked failing is reported though the regeneration passes") {
+    const std::vector<Species> species = ReadSpeciesText(original, kReferenceName);
+    const std::vector<SpeciesFit> fits = FitAllSpecies(species, Base(2));
+    EntriesFile committed = Committed(fits, Base(2));
+    Entry& h2o = *FindEntry(committed, "H2O");
+    h2o.quality.meets_thresholds = false;
+    h2o.quality.threshold_failures = {"low range: max |dCp|/Cp = 0.71 % at 215 K exceeds 0.5 %"};
+    const CheckResult result = CheckEntries(fits, committed, Base(2));
+    REQUIRE(Summary(result) == std::vector<std::string>{"H2O fit-fails"});
+    CHECK_THAT(result.findings[0].message, Contains("committed entry has verdict fail: low range"));
+  }
+}
+
+TEST_CASE("check reports entries written with other model options", "[mechanism]") {
+  const std::vector<Species> species = ReadSpeciesText(ReferenceText(), kReferenceName);
+  const RegenerateOptions plain = Base(2);
+  const EntriesFile committed = Committed(FitAllSpecies(species, plain), plain);
+
+  RegenerateOptions smooth = Base(2);
+  smooth.continuous_second_derivative = true;
+  const CheckResult result = CheckEntries(FitAllSpecies(species, smooth), committed, smooth);
+  // The extra constraint costs accuracy: CO2 and H2O then miss their thresholds (fit-fails,
+  // reported independently). Every species has its model change, and nothing else is found.
+  std::vector<std::string> changed;
+  for (const Finding& finding : result.findings) {
+    if (finding.kind == FindingKind::kFitFails) continue;
+    CHECK(finding.kind == FindingKind::kModelChanged);
+    changed.push_back(finding.species);
+  }
+  CHECK(changed == std::vector<std::string>{"N2", "CO2", "H2O", "Ar"});
+  CHECK_THAT(result.findings[0].message, Contains("t_mid auto; d2Cp/dT2 continuous; H and S pinned at 298.15 K\" in this run"));
+
+  // The species file's own fixed mid temperature instead of the automatic choice.
+  const RegenerateOptions file_mid = Jobs(2);
+  const CheckResult fixed = CheckEntries(FitAllSpecies(species, file_mid), committed, file_mid);
+  REQUIRE(!fixed.findings.empty());
+  CHECK(fixed.findings[0].species == "N2");
+  CHECK(fixed.findings[0].kind == FindingKind::kModelChanged);
+  CHECK_THAT(fixed.findings[0].message, Contains("t_mid auto; H and S pinned at 298.15 K\" in the entry"));
+  CHECK_THAT(fixed.findings[0].message, Contains("t_mid fixed at 1000 K; H and S pinned at 298.15 K\" in this run"));
+  CHECK_THAT(fixed.findings[0].message, Contains("regenerated curves differ by up to Cp"));
+}
+
+TEST_CASE("finding kinds have one spelling each", "[mechanism]") {
+  CHECK(ToString(FindingKind::kMissing) == "missing");
+  CHECK(ToString(FindingKind::kExtra) == "extra");
+  CHECK(ToString(FindingKind::kStale) == "stale");
+  CHECK(ToString(FindingKind::kModelChanged) == "model-changed");
+  CHECK(ToString(FindingKind::kDataChanged) == "data-changed");
+  CHECK(ToString(FindingKind::kRangeChanged) == "range-changed");
+  CHECK(ToString(FindingKind::kCurveChanged) == "curve-changed");
+  CHECK(ToString(FindingKind::kFitFails) == "fit-fails");
+}
+
+TEST_CASE("the JUnit report has one test case per species and escapes text", "[mechanism]") {
+  CheckResult result;
+  result.names = {"N2", "A&B<\"x\">", "Ar"};
+  result.findings.push_back({FindingKind::kStale, "A&B<\"x\">", "input 'changed'\x01",
+                             SourceLocation{"s.yaml", 3, 5}});
+  result.findings.push_back({FindingKind::kExtra, "A&B<\"x\">", "line\nbreak", SourceLocation{}});
+  const std::string xml = FormatJUnitReport(result, "suite & co");
+  CHECK(xml ==
+        "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n"
+        "<testsuite name=\"suite &amp; co\" tests=\"3\" failures=\"1\" errors=\"0\" "
+        "skipped=\"0\">\n"
+        "  <testcase classname=\"suite &amp; co\" name=\"N2\"/>\n"
+        "  <testcase classname=\"suite &amp; co\" name=\"A&amp;B&lt;&quot;x&quot;&gt;\">\n"
+        "    <failure type=\"stale\" message=\"stale: input &apos;changed&apos;\\x01\">s.yaml:3:5: "
+        "stale: input &apos;changed&apos;\\x01</failure>\n"
+        "    <failure type=\"extra\" message=\"extra: line&#10;break\">extra: "
+        "line&#10;break</failure>\n"
+        "  </testcase>\n"
+        "  <testcase classname=\"suite &amp; co\" name=\"Ar\"/>\n"
+        "</testsuite>\n");
+  CHECK(FormatJUnitReport(result, "suite & co") == xml);
+}
+
+}  // namespace
+}  // namespace sevenfold

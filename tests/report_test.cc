@@ -1,0 +1,478 @@
+// SPDX-License-Identifier: MIT
+// The fit report: ordering, completeness, self-containment and determinism of the documents,
+// the plotting helper's ticks and clipping, the command's exit status, and the page as a real
+// browser renders it (headless chromium, when installed).
+#include <fmt/format.h>
+#include <sys/wait.h>
+#include <unistd.h>
+
+#include <algorithm>
+#include <catch2/catch.hpp>
+#include <cmath>
+#include <cstdio>
+#include <cstdlib>
+#include <filesystem>
+#include <fstream>
+#include <iostream>
+#include <regex>
+#include <sstream>
+#include <string>
+#include <vector>
+
+#include "core/constants.h"
+#include "entries/entries.h"
+#include "mechanism/regenerate.h"
+#include "report/report_data.h"
+#include "report/report_document.h"
+#include "report/report_svg.h"
+#include "species/species_reader.h"
+
+namespace {
+
+using namespace sevenfold;
+namespace fs = std::filesystem;
+
+const std::string kSpeciesFile =
+    std::string(SEVENFOLD_SOURCE_DIR) + "/tests/data/reference-species.yaml";
+
+std::string ReadWhole(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  std::stringstream buffer;
+  buffer << in.rdbuf();
+  return buffer.str();
+}
+
+void WriteWhole(const std::string& path, const std::string& text) {
+  std::ofstream out(path, std::ios::binary);
+  out << text;
+}
+
+size_t Count(const std::string& text, const std::string& what) {
+  size_t n = 0;
+  for (size_t at = text.find(what); at != std::string::npos; at = text.find(what, at + 1)) ++n;
+  return n;
+}
+
+fs::path NewTempDir(const std::string& stem) {
+  static int counter = 0;
+  const fs::path dir = fs::temp_directory_path() /
+                       (stem + "_" + std::to_string(getpid()) + "_" + std::to_string(++counter));
+  fs::remove_all(dir);
+  fs::create_directories(dir);
+  return dir;
+}
+
+// The reference species fitted once (fits are deterministic, so sharing them is safe).
+struct Fixture {
+  std::vector<Species> species;
+  EntriesFile entries;
+};
+
+const Fixture& Fitted() {
+  static const Fixture fixture = [] {
+    Fixture f;
+    f.species = ReadSpeciesFiles({kSpeciesFile});
+    RegenerateOptions options;
+    options.num_jobs = 1;
+    f.entries = MakeEntriesFile(FitAllSpecies(f.species, options), options);
+    return f;
+  }();
+  return fixture;
+}
+
+// An entry made clearly worse: Cp of the low range raised by 3 % of its constant term, far over
+// the 0.5 % threshold.
+EntriesFile WithSpoiledEntry(EntriesFile file, const std::string& name) {
+  for (Entry& entry : file.entries) {
+    if (entry.name == name) entry.polynomial.low[0] *= 1.03;
+  }
+  return file;
+}
+
+ReportData Analyse(const EntriesFile& entries, const EntriesFile* baseline, int num_jobs) {
+  const Fixture& f = Fitted();
+  ReportInput input;
+  input.tool_version = "test";
+  input.species_files = {"tests/data/reference-species.yaml"};
+  input.entries_file = "entries.txt";
+  if (baseline != nullptr) input.baseline_file = "old-entries.txt";
+  PairSpeciesWithEntries(f.species, entries, "entries.txt", baseline, false, input);
+  ReportOptions options;
+  options.num_jobs = num_jobs;
+  return AnalyseReport(input, options);
+}
+
+// The <svg ...>...</svg> elements of a page.
+std::vector<std::string> SvgElements(const std::string& html) {
+  std::vector<std::string> svgs;
+  for (size_t at = html.find("<svg"); at != std::string::npos; at = html.find("<svg", at + 1)) {
+    const size_t end = html.find("</svg>", at);
+    REQUIRE(end != std::string::npos);
+    svgs.push_back(html.substr(at, end + 6 - at));
+  }
+  return svgs;
+}
+
+// Every polyline of `svg` with at least two points, as a count.
+int NumDrawnPolylines(const std::string& svg) {
+  static const std::regex polyline(R"re(<polyline points="([^"]*)")re");
+  int n = 0;
+  for (auto it = std::sregex_iterator(svg.begin(), svg.end(), polyline);
+       it != std::sregex_iterator();
+       ++it) {
+    if (Count((*it)[1].str(), ",") >= 2) ++n;
+  }
+  return n;
+}
+
+struct RunResult {
+  int exit_status = -1;
+  std::string out;
+  std::string err;
+};
+
+RunResult Run(const std::string& arguments) {
+  static int counter = 0;
+  const fs::path stem =
+      fs::temp_directory_path() /
+      ("sevenfold_report_run_" + std::to_string(getpid()) + "_" + std::to_string(++counter));
+  const std::string out_path = stem.string() + ".out", err_path = stem.string() + ".err";
+  const std::string command = std::string("cd ") + SEVENFOLD_SOURCE_DIR + " && " +
+                              SEVENFOLD_BINARY + " " + arguments + " >" + out_path + " 2>" +
+                              err_path + " </dev/null";
+  const int raw = std::system(command.c_str());
+  RunResult result;
+  result.exit_status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
+  result.out = ReadWhole(out_path);
+  result.err = ReadWhole(err_path);
+  fs::remove(out_path);
+  fs::remove(err_path);
+  return result;
+}
+
+}  // namespace
+
+TEST_CASE("log-axis ticks are round 1-2-5 values and tick labels carry no spurious digits",
+          "[report]") {
+  // Common practice for plot axes: ticks at 1, 2 and 5 times powers of ten.
+  const std::vector<double> ticks = AxisTicks(PlotAxis{100.0, 9000.0, AxisScale::kLog, ""}, 6);
+  CHECK(ticks == std::vector<double>{100, 200, 500, 1000, 2000, 5000});
+  const std::vector<double> linear = AxisTicks(PlotAxis{-0.012, 0.012, AxisScale::kLinear, ""}, 4);
+  REQUIRE(linear.size() == 5);
+  CHECK(FormatTickLabel(linear[0], linear[1] - linear[0]) == "\u22120.010");
+  CHECK(FormatTickLabel(linear[2], linear[1] - linear[0]) == "0.000");
+  CHECK(FormatTickLabel(2000.0, 1000.0) == "2000");
+  // 34.6 / 5 = 6.9 rounds to a step of 5: [25, 65].
+  const auto [low, high] = NiceRange(27.3, 61.9, 5);
+  CHECK(low == 25.0);
+  CHECK(high == 65.0);
+}
+
+TEST_CASE("plot lines are clipped to the plot area and every coordinate is finite", "[report]") {
+  PlotSpec spec;
+  spec.x = PlotAxis{1.0, 10.0, AxisScale::kLinear, "x"};
+  spec.y = PlotAxis{0.0, 1.0, AxisScale::kLinear, "y"};
+  // A line that leaves the area far above, comes back, and has a gap (NaN) in it.
+  spec.series.push_back(PlotSeries{
+      {1, 2, 3, 4, 5, 6}, {0.5, 1e200, 0.5, std::nan(""), 0.2, 0.3}, LineStyle{}, "line", "line"});
+  const std::string svg = RenderPlot(spec);
+  const std::regex polyline(R"re(<polyline points="([^"]*)")re");
+  int num_points = 0;
+  for (auto it = std::sregex_iterator(svg.begin(), svg.end(), polyline);
+       it != std::sregex_iterator();
+       ++it) {
+    std::istringstream pairs((*it)[1].str());
+    std::string pair;
+    while (pairs >> pair) {
+      double x = 0, y = 0;
+      REQUIRE(std::sscanf(pair.c_str(), "%lf,%lf", &x, &y) == 2);
+      CHECK(x >= 0.0);
+      CHECK(x <= spec.width_px);
+      CHECK(y >= 0.0);
+      CHECK(y <= spec.height_px);
+      ++num_points;
+    }
+  }
+  // Three pieces: up to the top edge, back down from it to x = 3, and the part after the gap.
+  CHECK(Count(svg, "<polyline") == 3);
+  CHECK(num_points == 6);
+}
+
+TEST_CASE("report lists species worst fit first in every document", "[report]") {
+  // H2O fits within its thresholds (rigid rotor / harmonic, 200 K to 6000 K, T_mid 1000 K);
+  // spoiled it must fail and come first.
+  const ReportData plain = Analyse(Fitted().entries, nullptr, 2);
+  const EntriesFile spoiled = WithSpoiledEntry(Fitted().entries, "H2O");
+  const ReportData data = Analyse(spoiled, nullptr, 2);
+  REQUIRE(data.species.size() == 4);
+  CHECK(data.species.front().name == "H2O");
+  CHECK_FALSE(data.species.front().fit.meets_thresholds);
+  CHECK(data.NumFailing() == plain.NumFailing() + 1);
+  for (size_t i = 1; i < data.species.size(); ++i) {
+    CHECK(data.species[i - 1].fit.max_normalised_error >= data.species[i].fit.max_normalised_error);
+  }
+  // The fitted (unspoiled) entries were judged exactly as the fitter judged them.
+  for (const SpeciesReport& s : data.species) {
+    if (s.name == "H2O") continue;
+    const auto entry = std::find_if(spoiled.entries.begin(),
+                                    spoiled.entries.end(),
+                                    [&](const Entry& e) { return e.name == s.name; });
+    REQUIRE(entry != spoiled.entries.end());
+    CHECK(s.fit.low_range.max_cp_relative == entry->quality.low_range.max_cp_relative);
+    CHECK(s.fit.high_range.max_s_over_r == entry->quality.high_range.max_s_over_r);
+    CHECK(s.fit.meets_thresholds == entry->quality.meets_thresholds);
+  }
+
+  // Same order in the summary table, the Markdown and the JSON.
+  const std::string html = FormatReportHtml(data);
+  const std::string md = FormatReportMarkdown(data);
+  const std::string json = FormatReportJson(data);
+  size_t last_html = 0, last_md = 0, last_json = 0;
+  for (size_t i = 0; i < data.species.size(); ++i) {
+    const std::string& name = data.species[i].name;
+    const size_t in_html = html.find(">" + name + "</a>");
+    const size_t in_md = md.find("| " + name + " |");
+    const size_t in_json = json.find("\"name\": \"" + name + "\"");
+    REQUIRE(in_html != std::string::npos);
+    REQUIRE(in_md != std::string::npos);
+    REQUIRE(in_json != std::string::npos);
+    if (i > 0) {
+      CHECK(in_html > last_html);
+      CHECK(in_md > last_md);
+      CHECK(in_json > last_json);
+    }
+    last_html = in_html;
+    last_md = in_md;
+    last_json = in_json;
+  }
+  CHECK_THAT(md, Catch::Contains("| H2O | **FAIL** |"));
+  CHECK_THAT(json, Catch::Contains(fmt::format("\"num_failing\": {}", data.NumFailing())));
+}
+
+TEST_CASE("report plots the exact curve at the tabulated values", "[report]") {
+  const ReportData data = Analyse(Fitted().entries, nullptr, 1);
+  const auto n2 = std::find_if(data.species.begin(),
+                               data.species.end(),
+                               [](const SpeciesReport& s) { return s.name == "N2"; });
+  REQUIRE(n2 != data.species.end());
+  const std::vector<double>& t = n2->curves.t_k;
+  const auto at = std::find(t.begin(), t.end(), constants::kReferenceTemperature);
+  REQUIRE(at != t.end());
+  const size_t i = static_cast<size_t>(at - t.begin());
+  // JANAF 4th ed. (Chase 1998), N2 at 298.15 K: Cp 29.124, S 191.609 J/(mol K) (from memory);
+  // the rigid-rotor/harmonic model is within 0.5 % there (see statmech_test).
+  constexpr double kModelTolerance = 0.005;
+  CHECK(n2->curves.exact.cp_j_per_mol_k[i] == Approx(29.124).epsilon(kModelTolerance));
+  CHECK(n2->curves.exact.s_j_per_mol_k[i] == Approx(191.609).epsilon(kModelTolerance));
+  // By definition H - H298 vanishes at 298.15 K, and -(G - H298)/T equals S there.
+  CHECK(n2->curves.exact.h_minus_h298_kj_per_mol[i] == 0.0);
+  CHECK(n2->curves.exact.gibbs_function_j_per_mol_k[i] == n2->curves.exact.s_j_per_mol_k[i]);
+  // The plot covers half T_low to 1.5 T_high (200 K and 6000 K in the file).
+  CHECK(t.front() == 100.0);
+  CHECK(t.back() == 9000.0);
+}
+
+TEST_CASE("every species has its four plots and four error plots", "[report]") {
+  const ReportData data = Analyse(Fitted().entries, nullptr, 1);
+  const std::string html = FormatReportHtml(data);
+  const std::vector<std::string> svgs = SvgElements(html);
+  CHECK(svgs.size() == 8 * data.species.size());
+  for (const SpeciesReport& s : data.species) {
+    for (const char* quantity : {"cp", "h", "s", "g"}) {
+      for (const char* kind : {"value", "error"}) {
+        const std::string tag = fmt::format(
+            "data-species=\"{}\" data-quantity=\"{}\" data-kind=\"{}\"", s.name, quantity, kind);
+        int found = 0;
+        for (const std::string& svg : svgs) {
+          if (svg.find(tag) == std::string::npos) continue;
+          ++found;
+          // Value plots draw the exact curve and the fit; error plots the fit's error.
+          CHECK(NumDrawnPolylines(svg) >= (std::string(kind) == "value" ? 2 : 1));
+          CHECK(Count(svg, "class=\"fitted\"") == 1);
+          if (std::string(kind) == "error") CHECK(Count(svg, "class=\"band\"") == 1);
+        }
+        INFO(s.name << " " << quantity << " " << kind);
+        CHECK(found == 1);
+      }
+    }
+  }
+  CHECK_THAT(html, Catch::Contains(kReportCaution));
+}
+
+TEST_CASE("the page is self-contained and its SVG numbers are finite", "[report]") {
+  const ReportData data = Analyse(WithSpoiledEntry(Fitted().entries, "N2"), &Fitted().entries, 1);
+  const std::string html = FormatReportHtml(data);
+  CHECK(html.find("http") == std::string::npos);
+  CHECK(html.find("<script") == std::string::npos);
+  CHECK(html.find("@import") == std::string::npos);
+  CHECK(html.find("url(") == std::string::npos);
+  CHECK(html.find("<img") == std::string::npos);
+  CHECK(html.find("<link") == std::string::npos);
+  CHECK_THAT(html, Catch::Contains("@media print"));
+  // Every number inside an SVG attribute parses to a finite value.
+  const std::regex attribute(
+      R"re( (?:x|y|x1|y1|x2|y2|width|height|points|d|stroke-width|fill-opacity)="([^"]*)")re");
+  const std::regex number(R"([-+]?[0-9]*\.?[0-9]+(?:[eE][-+]?[0-9]+)?)");
+  int num_numbers = 0;
+  for (const std::string& svg : SvgElements(html)) {
+    CHECK(svg.find("nan") == std::string::npos);
+    CHECK(svg.find("inf") == std::string::npos);
+    for (auto a = std::sregex_iterator(svg.begin(), svg.end(), attribute);
+         a != std::sregex_iterator();
+         ++a) {
+      const std::string value = (*a)[1].str();
+      for (auto n = std::sregex_iterator(value.begin(), value.end(), number);
+           n != std::sregex_iterator();
+           ++n) {
+        CHECK(std::isfinite(std::stod((*n).str())));
+        ++num_numbers;
+      }
+    }
+  }
+  CHECK(num_numbers > 1000);
+}
+
+TEST_CASE("baseline curves appear only when a baseline is given", "[report]") {
+  const EntriesFile current = WithSpoiledEntry(Fitted().entries, "H2O");
+  const ReportData with = Analyse(current, &Fitted().entries, 1);
+  const ReportData without = Analyse(current, nullptr, 1);
+  const std::string html_with = FormatReportHtml(with);
+  const std::string html_without = FormatReportHtml(without);
+  for (const std::string& svg : SvgElements(html_with)) {
+    CHECK(Count(svg, "class=\"baseline\"") == 1);
+    const size_t group = svg.find("class=\"baseline\"");
+    CHECK(svg.find("stroke-dasharray", group) < svg.find("</g>", group));  // dashed
+    CHECK(svg.find("<polyline", group) < svg.find("</g>", group));         // and drawn
+  }
+  CHECK_THAT(html_with, Catch::Contains("baseline fit"));
+  CHECK(html_without.find("class=\"baseline\"") == std::string::npos);
+  // The baseline's own figures: the unspoiled H2O fit passes where the spoiled one fails.
+  const auto h2o = std::find_if(with.species.begin(),
+                                with.species.end(),
+                                [](const SpeciesReport& s) { return s.name == "H2O"; });
+  REQUIRE(h2o != with.species.end());
+  REQUIRE(h2o->baseline.has_value());
+  CHECK_FALSE(h2o->fit.meets_thresholds);
+  CHECK(h2o->baseline->meets_thresholds);
+  CHECK_THAT(FormatReportJson(with), Catch::Contains("\"baseline_file\": \"old-entries.txt\""));
+}
+
+TEST_CASE("report documents are byte-identical whatever the thread count", "[report]") {
+  const EntriesFile entries = WithSpoiledEntry(Fitted().entries, "Ar");
+  const ReportData one = Analyse(entries, &Fitted().entries, 1);
+  const ReportData four = Analyse(entries, &Fitted().entries, 4);
+  CHECK(FormatReportHtml(one) == FormatReportHtml(four));
+  CHECK(FormatReportMarkdown(one) == FormatReportMarkdown(four));
+  CHECK(FormatReportJson(one) == FormatReportJson(four));
+  CHECK(FormatReportHtml(one) == FormatReportHtml(one));
+}
+
+TEST_CASE("a species without an entry is an error naming both files", "[report]") {
+  EntriesFile entries = Fitted().entries;
+  entries.entries.erase(entries.entries.begin());  // N2
+  ReportInput input;
+  REQUIRE_THROWS_WITH(
+      PairSpeciesWithEntries(Fitted().species, entries, "old.txt", nullptr, false, input),
+      Catch::Contains("reference-species.yaml:8") &&
+          Catch::Contains("'N2' has no entry in old.txt"));
+  // An entry with no species is listed, not an error.
+  EntriesFile extra = Fitted().entries;
+  extra.entries.push_back(extra.entries.front());
+  extra.entries.back().name = "XY";
+  ReportInput listed;
+  PairSpeciesWithEntries(Fitted().species, extra, "new.txt", nullptr, false, listed);
+  CHECK(listed.entries_without_species == std::vector<std::string>{"XY"});
+}
+
+TEST_CASE("report command writes three files, deterministically, with its exit status",
+          "[report]") {
+  const fs::path dir = NewTempDir("sevenfold_report_cli");
+  const std::string entries = (dir / "entries.txt").string();
+  const std::string spoiled = (dir / "spoiled.txt").string();
+  WriteWhole(entries, FormatEntries(Fitted().entries));
+  WriteWhole(spoiled, FormatEntries(WithSpoiledEntry(Fitted().entries, "H2O")));
+  // The verdict recorded in the spoiled file is stale (pass); the report measures it anew.
+
+  // H2O and Ar meet their thresholds; CO2 and N2 (rigid rotor to 6000 K) do not.
+  const std::string passing = " --species H2O --species Ar";
+  const RunResult fitted = Run("report tests/data/reference-species.yaml -q --jobs 1 -o " +
+                               (dir / "a").string() + passing);
+  CHECK(fitted.exit_status == 0);
+  CHECK_THAT(fitted.out,
+             Catch::Contains("report written to " + (dir / "a" / "index.html").string()));
+  const RunResult again = Run("report tests/data/reference-species.yaml -q --jobs 2 -o " +
+                              (dir / "b").string() + passing);
+  CHECK(again.exit_status == 0);
+  for (const char* file : {"index.html", "summary.md", "summary.json"}) {
+    const std::string a = ReadWhole((dir / "a" / file).string());
+    CHECK_FALSE(a.empty());
+    CHECK(a == ReadWhole((dir / "b" / file).string()));
+  }
+
+  const RunResult failing = Run("report tests/data/reference-species.yaml -q --entries " + spoiled +
+                                " --baseline " + entries + " -o " + (dir / "c").string() + passing);
+  CHECK(failing.exit_status == 1);
+  CHECK(fs::exists(dir / "c" / "index.html"));
+  CHECK_THAT(ReadWhole((dir / "c" / "summary.md").string()), Catch::Contains("| H2O | **FAIL** |"));
+
+  const RunResult bad =
+      Run("report tests/data/reference-species.yaml -q --species Xe -o " + (dir / "d").string());
+  CHECK(bad.exit_status == 2);
+  CHECK_THAT(bad.err, Catch::Contains("Xe"));
+  CHECK_FALSE(fs::exists(dir / "d"));
+  fs::remove_all(dir);
+}
+
+TEST_CASE("a headless browser renders every plot of the report", "[report][browser]") {
+  const std::string chromium = "/usr/bin/chromium";
+  if (!fs::exists(chromium)) {
+    WARN(
+        "chromium not installed (scripts/install-deps.sh --tests installs it): browser check "
+        "skipped");
+    return;
+  }
+  const fs::path dir = NewTempDir("sevenfold_report_browser");
+  const ReportData data = Analyse(WithSpoiledEntry(Fitted().entries, "H2O"), &Fitted().entries, 1);
+  const fs::path page = dir / "index.html";
+  WriteWhole(page.string(), FormatReportHtml(data));
+  const std::string flags =
+      "--headless --no-sandbox --disable-gpu --disable-quic --no-first-run "
+      "--disable-background-networking --disable-component-update --disable-sync "
+      "--hide-scrollbars --window-size=1100,2600";
+  // Each run gets a fresh profile directory, so no state leaks between runs or from the user.
+  const std::string dom_path = (dir / "dom.html").string();
+  const std::string dump =
+      "timeout 180 " + chromium + " " + flags + " --user-data-dir=" + (dir / "profile1").string() +
+      " --dump-dom file://" + page.string() + " >" + dom_path + " 2>" + (dir / "dump.err").string();
+  REQUIRE(std::system(dump.c_str()) == 0);
+  const std::string dom = ReadWhole(dom_path);
+  INFO(ReadWhole((dir / "dump.err").string()));
+  REQUIRE_FALSE(dom.empty());
+  const std::vector<std::string> svgs = SvgElements(dom);
+  CHECK(svgs.size() == 8 * data.species.size());
+  for (const SpeciesReport& s : data.species) {
+    int num_plots = 0;
+    for (const std::string& svg : svgs) {
+      if (svg.find("data-species=\"" + s.name + "\"") == std::string::npos) continue;
+      ++num_plots;
+      CHECK(NumDrawnPolylines(svg) >= 2);  // fit and baseline at least (error plots)
+    }
+    INFO(s.name);
+    CHECK(num_plots == 8);
+  }
+
+  const std::string shot = (dir / "shot.png").string();
+  const std::string screenshot = "timeout 180 " + chromium + " " + flags +
+                                 " --user-data-dir=" + (dir / "profile2").string() +
+                                 " --screenshot=" + shot + " file://" + page.string() +
+                                 " >/dev/null 2>" + (dir / "shot.err").string();
+  REQUIRE(std::system(screenshot.c_str()) == 0);
+  const std::string png = ReadWhole(shot);
+  INFO(ReadWhole((dir / "shot.err").string()));
+  REQUIRE(png.size() > 8);
+  CHECK(png.substr(0, 8) == std::string("\x89PNG\r\n\x1a\n", 8));
+  // A blank page of this size compresses to a few kB; text, tables and plots need far more.
+  constexpr size_t kMinRenderedBytes = 50000;
+  CHECK(png.size() > kMinRenderedBytes);
+  fs::remove_all(dir);
+}
