@@ -2,14 +2,12 @@
 #include "mechanism/regenerate.h"
 
 #include <algorithm>
-#include <atomic>
-#include <mutex>
-#include <thread>
 
 #include <fmt/format.h>
 
 #include "core/constants.h"
 #include "core/error.h"
+#include "core/parallel.h"
 #include "statmech/species_thermo.h"
 
 namespace sevenfold {
@@ -69,35 +67,23 @@ std::vector<SpeciesFit> FitAllSpecies(const std::vector<Species>& species,
   const int num_species = static_cast<int>(species.size());
   std::vector<SpeciesFit> results(species.size());
   std::vector<std::string> errors(species.size());
-  std::atomic<int> next{0};
-  std::atomic<int> num_done{0};
-
-  const auto work = [&] {
-    for (int i = next++; i < num_species; i = next++) {
-      SpeciesFit& result = results[i];
-      result.species = &species[i];
-      try {
-        result.exact = ExactCurvesFor(species[i]);
-        result.fit = FitTwoRange(result.exact, FitOptionsFor(species[i], options),
-                                 species[i].thresholds);
-      } catch (const Error& e) {
-        errors[i] = e.location().file.empty()
-                        ? fmt::format("{}: species '{}': {}", species[i].location.ToString(),
-                                      species[i].name, e.what())
-                        : e.what();
-      }
-      const int done = ++num_done;
-      if (options.progress) options.progress(done, num_species);
-    }
-  };
-
-  int num_threads = options.num_jobs > 0 ? options.num_jobs
-                                         : static_cast<int>(std::thread::hardware_concurrency());
-  num_threads = std::clamp(num_threads, 1, std::max(1, num_species));
-  std::vector<std::thread> threads;
-  for (int t = 1; t < num_threads; ++t) threads.emplace_back(work);
-  work();
-  for (std::thread& thread : threads) thread.join();
+  ParallelFor(
+      num_species, options.num_jobs,
+      [&](int i) {
+        SpeciesFit& result = results[i];
+        result.species = &species[i];
+        try {
+          result.exact = ExactCurvesFor(species[i]);
+          result.fit = FitTwoRange(result.exact, FitOptionsFor(species[i], options),
+                                   species[i].thresholds);
+        } catch (const Error& e) {
+          errors[i] = e.location().file.empty()
+                          ? fmt::format("{}: species '{}': {}", species[i].location.ToString(),
+                                        species[i].name, e.what())
+                          : e.what();
+        }
+      },
+      options.progress);
 
   if (failures != nullptr) {
     std::vector<SpeciesFit> good;

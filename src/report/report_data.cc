@@ -4,14 +4,13 @@
 #include <fmt/format.h>
 
 #include <algorithm>
-#include <atomic>
 #include <cmath>
 #include <limits>
 #include <map>
-#include <thread>
 
 #include "core/constants.h"
 #include "core/error.h"
+#include "core/parallel.h"
 #include "fit/fitter.h"
 #include "report/entry_evaluation.h"
 #include "statmech/species_thermo.h"
@@ -307,29 +306,19 @@ ReportData AnalyseReport(const ReportInput& input, const ReportOptions& options)
   const int num_species = static_cast<int>(input.species.size());
   std::vector<SpeciesReport> reports(input.species.size());
   std::vector<std::string> errors(input.species.size());
-  std::atomic<int> next{0};
-  std::atomic<int> num_done{0};
-  const auto work = [&] {
-    for (int i = next++; i < num_species; i = next++) {
-      try {
-        reports[i] = AnalyseSpecies(input.species[i], options);
-        if (!input.baseline_file.empty() && !input.species[i].baseline) {
-          reports[i].notes.push_back("no entry in the baseline file: no baseline curve");
+  ParallelFor(
+      num_species, options.num_jobs,
+      [&](int i) {
+        try {
+          reports[i] = AnalyseSpecies(input.species[i], options);
+          if (!input.baseline_file.empty() && !input.species[i].baseline) {
+            reports[i].notes.push_back("no entry in the baseline file: no baseline curve");
+          }
+        } catch (const Error& e) {
+          errors[i] = e.what();
         }
-      } catch (const Error& e) {
-        errors[i] = e.what();
-      }
-      const int done = ++num_done;
-      if (options.progress) options.progress(done, num_species);
-    }
-  };
-  int num_threads = options.num_jobs > 0 ? options.num_jobs
-                                         : static_cast<int>(std::thread::hardware_concurrency());
-  num_threads = std::clamp(num_threads, 1, std::max(1, num_species));
-  std::vector<std::thread> threads;
-  for (int t = 1; t < num_threads; ++t) threads.emplace_back(work);
-  work();
-  for (std::thread& thread : threads) thread.join();
+      },
+      options.progress);
 
   std::string message;
   for (const std::string& error : errors) {
