@@ -21,6 +21,7 @@
 #include "statmech/species_thermo.h"
 #include "statmech/torsion.h"
 #include "statmech/translation.h"
+#include "statmech/tridiagonal.h"
 
 namespace sevenfold {
 namespace {
@@ -967,6 +968,126 @@ TEST_CASE("models beyond the rigid rotor are finite and continuous from 10 K to 
       REQUIRE(p.s_j_per_mol_k > previous_s);
       previous_s = p.s_j_per_mol_k;
     }
+  }
+}
+
+}  // namespace
+}  // namespace sevenfold
+
+namespace sevenfold {
+namespace {
+
+// Agreement demanded of the eigenvalue-only QL (statmech/tridiagonal.h): it is backward stable,
+// so each eigenvalue is off by at most a small multiple of n eps ||T|| (Golub & Van Loan, Matrix
+// Computations, 4th ed., sec. 8.3, from memory); for n <= 200, 200 * 2.2e-16 ~ 4e-14 of the
+// largest entry, and 1e-12 leaves a margin of 25.
+constexpr double kTridiagonalTolerance = 1e-12;
+
+TEST_CASE("tridiagonal eigenvalues match the closed form of a Toeplitz matrix", "[statmech]") {
+  // Diagonal a, off-diagonal b, size n: eigenvalues a + 2 b cos(k pi / (n + 1)), k = 1..n
+  // (Golub & Van Loan, sec. 4.8, from memory; common practice).
+  for (const int n : {1, 2, 3, 10, 57, 200}) {
+    const double a = 3.7, b = -1.3;
+    const std::vector<double> values =
+        SymmetricTridiagonalEigenvalues(std::vector<double>(n, a), std::vector<double>(n - 1, b));
+    std::vector<double> expected;
+    for (int k = 1; k <= n; ++k) {
+      expected.push_back(a + 2.0 * b * std::cos(k * constants::kPi / (n + 1)));
+    }
+    if (n == 1) expected = {a};
+    std::sort(expected.begin(), expected.end());
+    REQUIRE(values.size() == expected.size());
+    for (int k = 0; k < n; ++k) {
+      CAPTURE(n, k);
+      CHECK(std::fabs(values[k] - expected[k]) <=
+            kTridiagonalTolerance * (std::fabs(a) + 2 * std::fabs(b)));
+    }
+  }
+}
+
+TEST_CASE("tridiagonal eigenvalues agree with Eigen's symmetric eigensolver", "[statmech]") {
+  // Asymmetric-top-like blocks: quadratic diagonal, large varying off-diagonal, sizes 2..120.
+  for (int n = 2; n <= 120; n += 7) {
+    std::vector<double> diagonal(n), off(n - 1);
+    Eigen::MatrixXd dense = Eigen::MatrixXd::Zero(n, n);
+    for (int i = 0; i < n; ++i) {
+      diagonal[i] = 0.37 * i * i - 5.0 * i + 2.0;
+      dense(i, i) = diagonal[i];
+      if (i + 1 < n) {
+        off[i] = 0.8 * std::sqrt((i + 1.0) * (n - i));
+        dense(i, i + 1) = dense(i + 1, i) = off[i];
+      }
+    }
+    const Eigen::VectorXd reference =
+        Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd>(dense, Eigen::EigenvaluesOnly).eigenvalues();
+    const std::vector<double> values = SymmetricTridiagonalEigenvalues(diagonal, off);
+    const double scale = dense.cwiseAbs().maxCoeff();
+    for (int k = 0; k < n; ++k) {
+      CAPTURE(n, k);
+      CHECK(std::fabs(values[k] - reference(k)) <= kTridiagonalTolerance * scale);
+    }
+  }
+}
+
+TEST_CASE("asymmetric-top levels equal the eigenvalues of the full J block", "[statmech]") {
+  // The Wang-block split must give exactly the spectrum of the (2J+1) x (2J+1) rigid-rotor matrix
+  // in the |J,K> basis (GordyCook1984, ch. 7): diagonal A K^2 + (B+C)/2 (J(J+1) - K^2), couplings
+  // (B-C)/4 sqrt((J-K)(J+K+1)(J-K-1)(J+K+2)) between K and K+2. Constants in K, invented (H2O-like
+  // and a near-prolate top); tolerance as for the tridiagonal solver, of the largest entry.
+  for (const std::array<double, 3>& abc : {std::array<double, 3>{40.1, 20.9, 13.4},
+                                           std::array<double, 3>{7.3, 0.52, 0.47}}) {
+    const double a = abc[0], b = abc[1], c = abc[2];
+    for (const int j : {0, 1, 2, 3, 8, 25, 60}) {
+      const int n = 2 * j + 1;
+      Eigen::MatrixXd h = Eigen::MatrixXd::Zero(n, n);
+      for (int i = 0; i < n; ++i) {
+        const double k = i - j;
+        h(i, i) = a * k * k + 0.5 * (b + c) * (j * (j + 1.0) - k * k);
+        if (i + 2 < n) {
+          h(i, i + 2) = h(i + 2, i) =
+              0.25 * (b - c) * std::sqrt((j - k) * (j + k + 1.0) * (j - k - 1.0) * (j + k + 2.0));
+        }
+      }
+      const Eigen::VectorXd dense =
+          Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd>(h, Eigen::EigenvaluesOnly).eigenvalues();
+      std::vector<double> levels = AsymmetricTopLevels(j, a, b, c);
+      std::sort(levels.begin(), levels.end());
+      REQUIRE(static_cast<int>(levels.size()) == n);
+      const double scale = h.cwiseAbs().maxCoeff();
+      for (int i = 0; i < n; ++i) {
+        CAPTURE(a, b, c, j, i);
+        CHECK(std::fabs(levels[i] - dense(i)) <= kTridiagonalTolerance * std::max(scale, 1.0));
+      }
+    }
+  }
+}
+
+// HarmonicMoments takes 1 - e^-x from exp() above x = 0.25 and folds the logarithms into one; the
+// result must match the textbook sums evaluated term by term in long double with expm1/log1p
+// (McQuarrie, Statistical Mechanics, 2000, ch. 6, from memory) to a few ulp per mode: over 60
+// modes the worst case is ~60 * 4 * 2.2e-16 ~ 5e-14 relative, and 1e-13 leaves a margin of 2.
+constexpr double kHarmonicTolerance = 1e-13;
+
+TEST_CASE("harmonic moments match the term-by-term sums to rounding", "[statmech]") {
+  std::vector<double> theta_k;
+  for (int i = 0; i < 60; ++i) theta_k.push_back(1.0 + 97.3 * i);  // 1 K .. 5700 K
+  for (const double t : {10.0, 200.0, 298.15, 1000.0, 6000.0, 20000.0}) {
+    long double ln_q = 0, mean = 0, variance = 0;
+    for (const double theta : theta_k) {
+      const long double x = static_cast<long double>(theta) / t;
+      const long double em1 = std::expm1(x);
+      ln_q -= std::log1p(-std::exp(-x));
+      mean += theta / em1;
+      variance += static_cast<long double>(theta) * theta * (em1 + 1) / (em1 * em1);
+    }
+    const Moments m = HarmonicMoments(theta_k, t);
+    CAPTURE(t);
+    CHECK(std::fabs(m.ln_q - static_cast<double>(ln_q)) <=
+          kHarmonicTolerance * std::fabs(static_cast<double>(ln_q)));
+    CHECK(std::fabs(m.mean_energy_k - static_cast<double>(mean)) <=
+          kHarmonicTolerance * static_cast<double>(mean));
+    CHECK(std::fabs(m.energy_variance_k2 - static_cast<double>(variance)) <=
+          kHarmonicTolerance * static_cast<double>(variance));
   }
 }
 

@@ -7,6 +7,7 @@
 #include <cmath>
 #include <cstddef>
 #include <limits>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -45,10 +46,38 @@ constexpr double kNumericDiffRelativeStep = 1e-4;
 constexpr int kMaxRefinementIterations = 50;
 constexpr double kRefinementFunctionTolerance = 1e-10;
 constexpr double kRefinementParameterTolerance = 1e-10;
+// The mid-temperature search compares objectives from the triangular factors of each split
+// (SearchObjective), which agree with the full QR solve's to ~1e-9 relative (tests/fit_test.cc).
+// Two objectives closer than this are compared again with full solves.
+constexpr double kSearchTieRelative = 1e-6;
 
 using Matrix = Eigen::MatrixXd;
 using Vector = Eigen::VectorXd;
 using Row7 = Eigen::Matrix<double, 1, 7>;
+// A weighted row of the least-squares problem: the 7 coefficients of its range, then the
+// right-hand side; and the triangular factor R (with Q^T b in its last column) of a set of rows.
+using Row8 = Eigen::Matrix<double, 1, 8>;
+using Triangle8 = Eigen::Matrix<double, 8, 8, Eigen::RowMajor>;
+
+// Adds one row to the QR factorisation [R | Q^T b] of a set of rows by Givens rotations: the
+// factor of the rows so far plus this row, without revisiting the earlier rows (Golub & Van Loan,
+// Matrix Computations, 4th ed., 2013, sec. 6.5, from memory). Backward stable, like the full QR.
+void AddRow(Triangle8& r, Row8 row) {
+  for (int j = 0; j < 7; ++j) {
+    const double v = row[j];
+    if (v == 0.0) continue;
+    const double diagonal = r(j, j);
+    const double radius = std::sqrt(diagonal * diagonal + v * v);
+    const double c = diagonal / radius, s = v / radius;
+    for (int k = j; k < 8; ++k) {
+      const double upper = r(j, k), lower = row[k];
+      r(j, k) = c * upper + s * lower;
+      row[k] = c * lower - s * upper;
+    }
+  }
+}
+// The constraint matrix has 14 columns and at most 7 rows (4 or 5 continuity, 2 pinning).
+constexpr int kMaxConstraints = 7;
 
 // Rows of the linear maps from the scaled coefficients b to the functions at tau.
 Row7 CpRow(double tau) {
@@ -130,6 +159,12 @@ ReferenceState FindReferenceState(const ExactCurves& exact, bool pin) {
   return state;
 }
 
+// x^16 by repeated squaring: the p-norm of the search path (a few ulp from std::pow).
+inline double PowerSixteen(double x) {
+  const double x2 = x * x, x4 = x2 * x2, x8 = x4 * x4;
+  return x8 * x8;
+}
+
 // One constrained fit at a given mid temperature, with its residuals.
 struct Solution {
   TwoRangePolynomial polynomial;
@@ -146,7 +181,21 @@ class ConstrainedFitter {
       : exact_(exact),
         options_(options),
         thresholds_(thresholds),
-        reference_(FindReferenceState(exact, options.pin_reference_state)) {}
+        reference_(FindReferenceState(exact, options.pin_reference_state)) {
+    // Weighted rows: each residual is a normalised error (error / threshold), docs/fitting.md.
+    // Built once per species; the exact solve and the search both read them.
+    const std::size_t n = exact_.t_k.size();
+    rows_.resize(3 * n);
+    for (std::size_t i = 0; i < n; ++i) {
+      const double tau = exact_.t_k[i] / kScaleTemperatureK;
+      const double cp_weight = 1.0 / (thresholds_.max_cp_relative * exact_.cp_over_r[i]);
+      rows_[3 * i] << CpRow(tau) * cp_weight, exact_.cp_over_r[i] * cp_weight;
+      rows_[3 * i + 1] << HRow(tau) / thresholds_.max_h_over_rt,
+          exact_.h_over_rt[i] / thresholds_.max_h_over_rt;
+      rows_[3 * i + 2] << SRow(tau) / thresholds_.max_s_over_r,
+          exact_.s_over_r[i] / thresholds_.max_s_over_r;
+    }
+  }
 
   // Lowest and highest mid temperatures leaving kMinPointsPerRange points on each side.
   double LowestMidK() const { return exact_.t_k[kMinPointsPerRange]; }
@@ -166,50 +215,17 @@ class ConstrainedFitter {
           t_mid_k, split, n - split, kMinPointsPerRange));
     }
 
-    // Weighted rows: each residual is a normalised error (error / threshold), docs/fitting.md.
-    Matrix a = Matrix::Zero(3 * static_cast<Eigen::Index>(n), 14);
-    Vector b(3 * static_cast<Eigen::Index>(n));
-    for (std::size_t i = 0; i < n; ++i) {
-      const Eigen::Index row = 3 * static_cast<Eigen::Index>(i);
-      const Eigen::Index offset = i < split ? 0 : 7;
-      const double tau = t[i] / kScaleTemperatureK;
-      const double cp_weight = 1.0 / (thresholds_.max_cp_relative * exact_.cp_over_r[i]);
-      a.block<1, 7>(row, offset) = CpRow(tau) * cp_weight;
-      b[row] = exact_.cp_over_r[i] * cp_weight;
-      a.block<1, 7>(row + 1, offset) = HRow(tau) / thresholds_.max_h_over_rt;
-      b[row + 1] = exact_.h_over_rt[i] / thresholds_.max_h_over_rt;
-      a.block<1, 7>(row + 2, offset) = SRow(tau) / thresholds_.max_s_over_r;
-      b[row + 2] = exact_.s_over_r[i] / thresholds_.max_s_over_r;
+    Matrix a = Matrix::Zero(static_cast<Eigen::Index>(rows_.size()), 14);
+    Vector b(static_cast<Eigen::Index>(rows_.size()));
+    for (std::size_t row = 0; row < rows_.size(); ++row) {
+      const Eigen::Index r = static_cast<Eigen::Index>(row);
+      a.block<1, 7>(r, row / 3 < split ? 0 : 7) = rows_[row].head<7>();
+      b[r] = rows_[row][7];
     }
-
-    // Equality constraints C x = d: continuity at t_mid, then the pinned reference state.
-    const double tau_mid = t_mid_k / kScaleTemperatureK;
-    std::vector<Row7> continuity = {CpRow(tau_mid), DCpRow(tau_mid), HRow(tau_mid), SRow(tau_mid)};
-    if (options_.continuous_second_derivative) continuity.push_back(D2CpRow(tau_mid));
-    const Eigen::Index num_constraints =
-        static_cast<Eigen::Index>(continuity.size()) + (reference_.pinned ? 2 : 0);
-    Matrix c = Matrix::Zero(num_constraints, 14);
-    Vector d = Vector::Zero(num_constraints);
-    Eigen::Index k = 0;
-    for (const Row7& row : continuity) {
-      c.block<1, 7>(k, 0) = row;
-      c.block<1, 7>(k, 7) = -row;
-      ++k;
-    }
-    if (reference_.pinned) {
-      const double tau_ref = constants::kReferenceTemperature / kScaleTemperatureK;
-      const Eigen::Index offset = constants::kReferenceTemperature < t_mid_k ? 0 : 7;
-      c.block<1, 7>(k, offset) = HRow(tau_ref);
-      d[k++] = reference_.h_over_rt;
-      c.block<1, 7>(k, offset) = SRow(tau_ref);
-      d[k++] = reference_.s_over_r;
-    }
-    // Rows of unit length: the same constraints, better balanced for the factorisation.
-    for (Eigen::Index r = 0; r < num_constraints; ++r) {
-      const double norm = c.row(r).norm();
-      c.row(r) /= norm;
-      d[r] /= norm;
-    }
+    Matrix c;
+    Vector d;
+    BuildConstraints(t_mid_k, c, d);
+    const Eigen::Index num_constraints = c.rows();
 
     // Null-space method. C^T P = Q [R; 0] (column-pivoted Householder QR); with Q = [Q1 Q2],
     // every x = Q1 R^-T P^T d + Q2 z satisfies C x = d, and z solves the unconstrained
@@ -260,11 +276,141 @@ class ConstrainedFitter {
     return solution;
   }
 
+  // Equality constraints C x = d at t_mid_k: continuity, then the pinned reference state; rows
+  // scaled to unit length.
+  void BuildConstraints(double t_mid_k, Matrix& c, Vector& d) const {
+    const double tau_mid = t_mid_k / kScaleTemperatureK;
+    std::vector<Row7> continuity = {CpRow(tau_mid), DCpRow(tau_mid), HRow(tau_mid), SRow(tau_mid)};
+    if (options_.continuous_second_derivative) continuity.push_back(D2CpRow(tau_mid));
+    const Eigen::Index num_constraints =
+        static_cast<Eigen::Index>(continuity.size()) + (reference_.pinned ? 2 : 0);
+    c = Matrix::Zero(num_constraints, 14);
+    d = Vector::Zero(num_constraints);
+    Eigen::Index k = 0;
+    for (const Row7& row : continuity) {
+      c.block<1, 7>(k, 0) = row;
+      c.block<1, 7>(k, 7) = -row;
+      ++k;
+    }
+    if (reference_.pinned) {
+      const double tau_ref = constants::kReferenceTemperature / kScaleTemperatureK;
+      const Eigen::Index offset = constants::kReferenceTemperature < t_mid_k ? 0 : 7;
+      c.block<1, 7>(k, offset) = HRow(tau_ref);
+      d[k++] = reference_.h_over_rt;
+      c.block<1, 7>(k, offset) = SRow(tau_ref);
+      d[k++] = reference_.s_over_r;
+    }
+    // Rows of unit length: the same constraints, better balanced for the factorisation.
+    for (Eigen::Index r = 0; r < num_constraints; ++r) {
+      const double norm = c.row(r).norm();
+      c.row(r) /= norm;
+      d[r] /= norm;
+    }
+  }
+
+  // Prepares SearchObjective(): the triangular factors of the rows below and at or above every
+  // possible split, built once by adding rows one at a time from the left and from the right
+  // (O(n) Givens rotations, once per species).
+  void PrepareSearch() {
+    const std::size_t n = exact_.t_k.size();
+    below_.assign(n + 1, Triangle8::Zero());
+    above_.assign(n + 1, Triangle8::Zero());
+    for (std::size_t i = 0; i < n; ++i) {
+      Triangle8 factor = below_[i];
+      for (std::size_t k = 3 * i; k < 3 * i + 3; ++k) AddRow(factor, rows_[k]);
+      below_[i + 1] = factor;
+    }
+    for (std::size_t i = n; i-- > 0;) {
+      Triangle8 factor = above_[i + 1];
+      for (std::size_t k = 3 * i; k < 3 * i + 3; ++k) AddRow(factor, rows_[k]);
+      above_[i] = factor;
+    }
+  }
+
+  // The objective of Solve(t_mid_k).objective, computed for the search (docs/performance.md):
+  // the same constrained least-squares problem, but on the 14 x 14 block-diagonal triangular
+  // factor of the split (from PrepareSearch) instead of the 3n x 14 design matrix, so that each
+  // candidate costs a 14-variable QR solve plus one pass over the rows for the residuals. Both are
+  // QR-based and backward stable; they agree to ~1e-9 relative (tests/fit_test.cc). Returns NaN
+  // when t_mid_k leaves too few points on a side.
+  double SearchObjective(double t_mid_k) const {
+    SEVENFOLD_ASSERT(!below_.empty());
+    const std::vector<double>& t = exact_.t_k;
+    const std::size_t n = t.size();
+    const std::size_t split =
+        static_cast<std::size_t>(std::lower_bound(t.begin(), t.end(), t_mid_k) - t.begin());
+    if (split < static_cast<std::size_t>(kMinPointsPerRange) ||
+        n - split < static_cast<std::size_t>(kMinPointsPerRange)) {
+      return std::numeric_limits<double>::quiet_NaN();
+    }
+    using Matrix14 = Eigen::Matrix<double, 14, 14>;
+    using Vector14 = Eigen::Matrix<double, 14, 1>;
+    Matrix14 factor = Matrix14::Zero();
+    Vector14 target;
+    const Triangle8& low = below_[split];
+    const Triangle8& high = above_[split];
+    factor.topLeftCorner<7, 7>() = low.topLeftCorner<7, 7>();
+    factor.bottomRightCorner<7, 7>() = high.topLeftCorner<7, 7>();
+    target.head<7>() = low.col(7).head<7>();
+    target.tail<7>() = high.col(7).head<7>();
+
+    Matrix c;
+    Vector d;
+    BuildConstraints(t_mid_k, c, d);
+    const int num_constraints = static_cast<int>(c.rows());
+    // Null space of C as in Solve(), with fixed-capacity matrices (no allocation per candidate).
+    using ConstraintsT = Eigen::Matrix<double, 14, Eigen::Dynamic, 0, 14, kMaxConstraints>;
+    using NullBasis = Eigen::Matrix<double, 14, Eigen::Dynamic, 0, 14, 14>;
+    using SmallVector = Eigen::Matrix<double, Eigen::Dynamic, 1, 0, 14, 1>;
+    const ConstraintsT c_transpose = c.transpose();
+    const Eigen::ColPivHouseholderQR<ConstraintsT> qr(c_transpose);
+    const Matrix14 q = qr.householderQ();
+    const NullBasis q2 = q.rightCols(14 - num_constraints);
+    const SmallVector permuted = qr.colsPermutation().transpose() * SmallVector(d);
+    const SmallVector y = qr.matrixR()
+                              .topLeftCorner(num_constraints, num_constraints)
+                              .transpose()
+                              .triangularView<Eigen::Lower>()
+                              .solve(permuted);
+    Vector14 x = q.leftCols(num_constraints) * y;
+    const NullBasis reduced = factor * q2;
+    const Eigen::ColPivHouseholderQR<NullBasis> reduced_qr(reduced);
+    x += q2 * reduced_qr.solve(Vector14(target - factor * x));
+
+    // Each residual is row . [x_range; -1]: one 8-wide dot product per row.
+    const std::size_t low_rows = 3 * split;
+    auto extended = [&x](int offset) {
+      Row8 coefficients;
+      coefficients << x.segment<7>(offset).transpose(), -1.0;
+      return coefficients;
+    };
+    const Row8 low_x = extended(0), high_x = extended(7);
+    // Residuals and their p-norm as in Solve(), with x^16 by squaring and one division.
+    std::vector<double>& residual = residual_scratch_;
+    residual.resize(rows_.size());
+    double largest = 0.0;
+    for (std::size_t k = 0; k < rows_.size(); ++k) {
+      residual[k] = std::fabs(rows_[k].dot(k < low_rows ? low_x : high_x));
+      largest = std::max(largest, residual[k]);
+    }
+    if (!(largest > 0.0)) return largest == 0.0 ? 0.0 : std::numeric_limits<double>::quiet_NaN();
+    const double inverse_largest = 1.0 / largest;
+    double sum = 0.0;
+    for (const double value : residual) sum += PowerSixteen(value * inverse_largest);
+    return largest *
+           std::pow(sum / static_cast<double>(residual.size()), 1.0 / kObjectiveExponent);
+  }
+
  private:
   const ExactCurves& exact_;
   const FitOptions& options_;
   const QualityThresholds& thresholds_;
   ReferenceState reference_;
+  std::vector<Row8> rows_;   // 3 per grid point: Cp, H, S
+  std::vector<Triangle8> below_;  // below_[s]: [R | Q^T b] of the rows of grid points i < s
+  std::vector<Triangle8> above_;  // above_[s]: the same for grid points i >= s
+  // Scratch of SearchObjective(); a ConstrainedFitter is used by one thread.
+  mutable std::vector<double> residual_scratch_;
 };
 
 // The refinement parameter x maps onto the bracket (lower_k, upper_k) by a logistic function,
@@ -282,7 +428,7 @@ struct MidObjective {
 
   bool operator()(const double* x, double* cost) const {
     try {
-      *cost = fitter->Solve(MidFromParameter(x[0], lower_k, upper_k)).objective;
+      *cost = fitter->SearchObjective(MidFromParameter(x[0], lower_k, upper_k));
     } catch (const Error&) {
       return false;
     }
@@ -438,7 +584,7 @@ FitResult FitTwoRange(const ExactCurves& exact, const FitOptions& options,
   }
   ValidateThresholds(thresholds);
   ValidateCurves(exact);
-  const ConstrainedFitter fitter(exact, options, thresholds);
+  ConstrainedFitter fitter(exact, options, thresholds);
   const double t_low_k = exact.t_k.front(), t_high_k = exact.t_k.back();
 
   FitResult result;
@@ -465,25 +611,43 @@ FitResult FitTwoRange(const ExactCurves& exact, const FitOptions& options,
       const double rounded = std::clamp(std::round(t_k), lowest_k, highest_k);
       if (candidates.empty() || rounded > candidates.back()) candidates.push_back(rounded);
     }
+    // The search compares objectives from the normal-equation path (SearchObjective); only the
+    // chosen mid temperature gets the full QR solve below.
+    fitter.PrepareSearch();
+    std::vector<double> scan_objectives(candidates.size());
     std::size_t best = 0;
-    Solution best_solution = fitter.Solve(candidates[0]);
-    for (std::size_t i = 1; i < candidates.size(); ++i) {
-      Solution trial = fitter.Solve(candidates[i]);
-      if (trial.objective < best_solution.objective) {
-        best = i;
-        best_solution = std::move(trial);
+    for (std::size_t i = 0; i < candidates.size(); ++i) {
+      scan_objectives[i] = fitter.SearchObjective(candidates[i]);
+      if (scan_objectives[i] < scan_objectives[best]) best = i;
+    }
+    double best_objective = scan_objectives[best];
+    // Candidates within the search path's error of the best are decided by the full solve, as the
+    // unoptimised scan did: the choice then matches it unless two candidates tie to ~1e-7.
+    std::optional<Solution> best_solution;
+    const double tie_bound = best_objective * (1.0 + kSearchTieRelative);
+    if (std::count_if(scan_objectives.begin(), scan_objectives.end(),
+                      [&](double value) { return value <= tie_bound; }) > 1) {
+      for (std::size_t i = 0; i < candidates.size(); ++i) {
+        if (!(scan_objectives[i] <= tie_bound)) continue;
+        Solution trial = fitter.Solve(candidates[i]);
+        if (!best_solution || trial.objective < best_solution->objective) {
+          best = i;
+          best_solution = std::move(trial);
+        }
       }
+      best_objective = best_solution->objective;
     }
     MidTemperatureChoice& choice = result.mid_choice;
     choice.num_scan_points = static_cast<int>(candidates.size());
     choice.scan_best_t_mid_k = candidates[best];
-    choice.scan_best_objective = best_solution.objective;
+    choice.scan_best_objective = best_objective;
     choice.method = MidTemperatureMethod::kScanOnly;
-    solution = best_solution;
+    double chosen_k = candidates[best];
 
     // Refinement between the neighbours of the best candidate.
     const double lower_k = candidates[best > 0 ? best - 1 : 0];
     const double upper_k = candidates[std::min(best + 1, candidates.size() - 1)];
+    std::optional<Solution> refined_solution;
     if (!(lower_k < upper_k)) {
       choice.note = "refinement skipped: the scan has a single candidate";
     } else {
@@ -494,14 +658,29 @@ FitResult FitTwoRange(const ExactCurves& exact, const FitOptions& options,
       } else {
         const double rounded_k = std::clamp(
             std::round(refinement.t_mid_k * kMidRoundingPerK) / kMidRoundingPerK, lower_k, upper_k);
-        Solution refined = fitter.Solve(rounded_k);
-        if (refined.objective < best_solution.objective) {
+        const double refined_objective = fitter.SearchObjective(rounded_k);
+        bool improves = refined_objective < best_objective;
+        if (std::fabs(refined_objective - best_objective) <=
+            kSearchTieRelative * best_objective) {
+          // Too close for the search path: compare full solves.
+          if (!best_solution) best_solution = fitter.Solve(candidates[best]);
+          refined_solution = fitter.Solve(rounded_k);
+          improves = refined_solution->objective < best_solution->objective;
+        }
+        if (improves) {
           choice.method = MidTemperatureMethod::kScanAndRefinement;
-          solution = std::move(refined);
+          chosen_k = rounded_k;
         } else {
           choice.note = "refinement did not improve on the best scan point";
         }
       }
+    }
+    if (chosen_k == candidates[best] && best_solution) {
+      solution = std::move(*best_solution);
+    } else if (chosen_k != candidates[best] && refined_solution) {
+      solution = std::move(*refined_solution);
+    } else {
+      solution = fitter.Solve(chosen_k);
     }
   }
 

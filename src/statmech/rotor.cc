@@ -12,6 +12,7 @@
 #include "core/constants.h"
 #include "core/error.h"
 #include "statmech/species_thermo.h"
+#include "statmech/tridiagonal.h"
 
 namespace sevenfold {
 namespace {
@@ -26,46 +27,45 @@ bool NearlyEqual(double x, double y) {
   return std::abs(x - y) <= kSymmetricTopTolerance * std::max(std::abs(x), std::abs(y));
 }
 
-// Eigenvalues of one K-parity block of the asymmetric-top Hamiltonian.
-void AppendBlockEigenvalues(int j, int first_k, double a_k, double b_k, double c_k,
-                            std::vector<double>& out) {
-  std::vector<int> ks;
-  for (int k = first_k; k <= j; k += 2) ks.push_back(k);
-  const int n = static_cast<int>(ks.size());
-  if (n == 0) return;
-  const double jj = static_cast<double>(j) * (j + 1);
-  Eigen::VectorXd diagonal(n);
-  Eigen::VectorXd off_diagonal(std::max(n - 1, 1));
-  for (int i = 0; i < n; ++i) {
-    const double k = ks[i];
-    diagonal(i) = a_k * k * k + 0.5 * (b_k + c_k) * (jj - k * k);
-    if (i + 1 < n) {
-      // <J,K+2| (B-C)/4 (J+^2 + J-^2) |J,K>
-      const double root = std::sqrt((j - k) * (j + k + 1.0) * (j - k - 1.0) * (j + k + 2.0));
-      off_diagonal(i) = 0.25 * (b_k - c_k) * root;
-    }
-  }
-  if (n == 1) {
-    out.push_back(diagonal(0));
-    return;
-  }
-  // Eigen's tridiagonal QL iteration does not scale its input (compute() does): without
-  // scaling to [-1, 1] it fails to converge for J of a few tens. Scaling is exact in binary.
-  const double scale = std::max(diagonal.cwiseAbs().maxCoeff(), off_diagonal.cwiseAbs().maxCoeff());
-  Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> solver;
-  solver.computeFromTridiagonal(diagonal / scale, off_diagonal.head(n - 1) / scale,
-                                Eigen::EigenvaluesOnly);
-  SEVENFOLD_ASSERT(solver.info() == Eigen::Success);
-  for (int i = 0; i < n; ++i) out.push_back(solver.eigenvalues()(i) * scale);
-}
-
 }  // namespace
 
+// The Hamiltonian couples K with K +- 2 only and is symmetric under K -> -K; in the Wang
+// combinations |K, +-> = (|K> +- |-K>) / sqrt 2 it splits into four tridiagonal blocks (E+, E-,
+// O+, O-) of about J/2 each [GordyCook1984, ch. 7]. Eigenvalues by implicit QL
+// (statmech/tridiagonal.h), whose cost grows as the square of the block size: four half-size
+// blocks cost half of the two K-parity blocks. This loop over J dominates the cost of a large
+// molecule (docs/performance.md).
 std::vector<double> AsymmetricTopLevels(int j, double a_k, double b_k, double c_k) {
+  const double jj = static_cast<double>(j) * (j + 1);
+  const auto diagonal = [&](int k) { return a_k * k * k + 0.5 * (b_k + c_k) * (jj - k * k); };
+  // <J,K+2| (B-C)/4 (J+^2 + J-^2) |J,K>, equal to <J,-K| ... |J,-K-2>.
+  const auto coupling = [&](int k) {
+    return 0.25 * (b_k - c_k) * std::sqrt((j - k) * (j + k + 1.0) * (j - k - 1.0) * (j + k + 2.0));
+  };
   std::vector<double> energies;
   energies.reserve(2 * j + 1);
-  AppendBlockEigenvalues(j, -j, a_k, b_k, c_k, energies);  // K = -J, -J+2, ..., J
-  AppendBlockEigenvalues(j, -j + 1, a_k, b_k, c_k, energies);  // K = -J+1, ..., J-1
+  // One Wang block over K = first_k, first_k + 2, ..., <= J. first_scale multiplies the first
+  // coupling (sqrt 2 between |0> and |2,+>); first_shift adds to the first diagonal element
+  // (+-<J,1|H|J,-1> = +-(B-C)/4 J(J+1) for O+ and O-).
+  const auto append_block = [&](int first_k, double first_scale, double first_shift) {
+    if (first_k > j) return;
+    std::vector<double> block_diagonal, block_coupling;
+    for (int k = first_k; k <= j; k += 2) {
+      block_diagonal.push_back(diagonal(k));
+      if (k + 2 <= j) block_coupling.push_back(coupling(k));
+    }
+    block_diagonal.front() += first_shift;
+    if (!block_coupling.empty()) block_coupling.front() *= first_scale;
+    for (const double value : SymmetricTridiagonalEigenvalues(std::move(block_diagonal),
+                                                              std::move(block_coupling))) {
+      energies.push_back(value);
+    }
+  };
+  const double k1_coupling = 0.25 * (b_k - c_k) * jj;
+  append_block(0, std::sqrt(2.0), 0.0);  // E+: K = 0, 2, 4, ...
+  append_block(2, 1.0, 0.0);             // E-: K = 2, 4, ...
+  append_block(1, 1.0, k1_coupling);     // O+: K = 1, 3, ...
+  append_block(1, 1.0, -k1_coupling);    // O-
   return energies;
 }
 

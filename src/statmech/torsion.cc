@@ -12,6 +12,7 @@
 #include "core/constants.h"
 #include "core/error.h"
 #include "statmech/species_thermo.h"
+#include "statmech/tridiagonal.h"
 
 namespace sevenfold {
 namespace {
@@ -69,15 +70,14 @@ void AppendBlock(double theta_k, const Terms& terms, int residue, int max_m,
     return;
   }
   if (terms.nonzero.size() == 1 && terms.nonzero[0].first == g) {
-    // One cosine term: neighbours in the block couple, nothing else. Eigen's tridiagonal QL does
-    // not scale its input (compute() does), so scale to [-1, 1] first; exact in binary.
-    const double off = -0.25 * terms.nonzero[0].second;
-    Eigen::VectorXd off_diagonal = Eigen::VectorXd::Constant(n - 1, off);
-    const double scale = std::max(diagonal.cwiseAbs().maxCoeff(), std::abs(off));
-    Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> solver;
-    solver.computeFromTridiagonal(diagonal / scale, off_diagonal / scale, Eigen::EigenvaluesOnly);
-    SEVENFOLD_ASSERT(solver.info() == Eigen::Success);
-    for (int i = 0; i < n; ++i) out.push_back(solver.eigenvalues()(i) * scale);
+    // One cosine term: neighbours in the block couple, nothing else. Eigenvalues only, by
+    // implicit QL (statmech/tridiagonal.h; it scales its input, which Eigen's tridiagonal QL does
+    // not, and costs a few times less, docs/performance.md).
+    std::vector<double> values(diagonal.data(), diagonal.data() + n);
+    for (const double value : SymmetricTridiagonalEigenvalues(
+             std::move(values), std::vector<double>(n - 1, -0.25 * terms.nonzero[0].second))) {
+      out.push_back(value);
+    }
     return;
   }
   Eigen::MatrixXd matrix = Eigen::MatrixXd::Zero(n, n);

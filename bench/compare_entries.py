@@ -1,0 +1,55 @@
+#!/usr/bin/python3
+# SPDX-License-Identifier: MIT
+"""Compares two entries files of the same species (docs/performance.md):
+ - blocks byte-identical, and T_mid equal;
+ - at equal T_mid: the largest relative change of any coefficient and of any quality figure;
+ - always: the worst normalised error (max over both ranges of max|dCp|/Cp / thr_cp,
+   max|dH|/RT / thr_h, max|dS|/R / thr_s), new against old.
+Usage: bench/compare_entries.py OLD.entries NEW.entries THR_CP THR_H THR_S
+(THR_*: the fit thresholds of the species, to normalise the errors; docs/performance.md)"""
+import sys
+def blocks(path):
+    out = {}; name = None; cur = []
+    for line in open(path):
+        if line.startswith('species "'):
+            name = line.split('"')[1]; cur = [line]
+        elif name is not None:
+            cur.append(line)
+            if line.strip() == 'end':
+                out[name] = cur; name = None
+    return out
+def fields(block):
+    return {l.split()[0]: l.split()[1:] for l in block}
+def worst(f, thr):
+    w = 0.0
+    for key, t in zip(('cp-error', 'h-error', 's-error'), thr):
+        v = f[key]  # low max X at-k T rms R high max X at-k T rms R
+        w = max(w, float(v[2]) / t, float(v[9]) / t)
+    return w
+def rel(x, y):
+    return abs(x - y) / max(abs(x), abs(y), 1e-300)
+old, new = blocks(sys.argv[1]), blocks(sys.argv[2])
+thr = [float(x) for x in sys.argv[3:6]]
+assert old.keys() == new.keys()
+identical = same_mid = 0; coef = quality = 0.0; ratios = []
+for k in old:
+    fo, fn = fields(old[k]), fields(new[k])
+    identical += old[k] == new[k]
+    wo, wn = worst(fo, thr), worst(fn, thr)
+    ratios.append((wn / wo if wo > 1e-6 else 1.0, k, wo, wn))
+    if fo['temperatures-k'] == fn['temperatures-k']:
+        same_mid += 1
+        for key in ('coefficients-low', 'coefficients-high'):
+            for x, y in zip(fo[key], fn[key]):
+                coef = max(coef, rel(float(x), float(y)))
+        for key in ('cp-error', 'h-error', 's-error', 'g-error'):
+            for i in (2, 9):
+                quality = max(quality, rel(float(fo[key][i]), float(fn[key][i])))
+ratios.sort()
+n = len(old)
+print(f"{n} species: {identical} byte-identical blocks; {same_mid} with the same T_mid")
+print(f"  same T_mid: largest relative change of a coefficient {coef:.2g}, of a max error {quality:.2g}")
+print(f"  worst normalised error new/old: min {ratios[0][0]:.4f} median {ratios[n // 2][0]:.4f} "
+      f"max {ratios[-1][0]:.4f} ({ratios[-1][1]}: {ratios[-1][2]:.4g} -> {ratios[-1][3]:.4g})")
+print(f"  species worse by more than 1 %: {sum(r > 1.01 for r, *_ in ratios)}; "
+      f"better by more than 1 %: {sum(r < 0.99 for r, *_ in ratios)}")
