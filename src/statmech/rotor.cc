@@ -117,10 +117,31 @@ RotorContribution RotorContribution::Nonlinear(const std::array<double, 3>& abc_
   rotor.ln_classical_prefactor_ = 0.5 * std::log(constants::kPi / (a * b * c));
   rotor.tail_[1] = (2.0 * (a + b + c) - (a * b / c + b * c / a + c * a / b)) / 12.0;
 
-  // The level ladder in J is set by the smallest constant; cap it by lowering T_switch.
-  double switch_t = options.switch_factor * a;
+  // The level ladder in J is set by the smallest constant. When a complete ladder up to
+  // switch_factor * A would need J beyond max_j, the top is necessarily near-prolate (the
+  // moments obey I_C <= I_A + I_B, so C >= AB/(A+B) >= B/2 and A/C large means A >> B ~ C):
+  // then K is summed exactly over symmetric-top stacks with b = sqrt(BC) (which keeps the
+  // classical limit exact), and J within each stack by Euler-Maclaurin, valid since T >> C there.
+  // The neglected asymmetry splitting enters at order ((B - C)/A)^2 (common practice).
   const double max_jj = static_cast<double>(options.max_j) * (options.max_j + 1);
-  switch_t = std::min(switch_t, c * max_jj / options.level_cut_factor);
+  const double switch_t = options.switch_factor * a;
+  if (c * max_jj / options.level_cut_factor < switch_t) {
+    rotor.switch_t_k_ = -1.0;  // no explicit sum at any temperature
+    rotor.hybrid_b_k_ = std::sqrt(b * c);
+    const double hb = rotor.hybrid_b_k_;
+    const double energy_cut = options.level_cut_factor * kMaxTemperatureK;
+    for (int k = 0; a * k * k <= energy_cut; ++k) {
+      KTerm term;
+      term.degeneracy = k == 0 ? 1.0 : 2.0;
+      term.energy_k = (a - hb) * k * k + hb * k * (k + 1.0);
+      // sum_{J>=K} (2J+1) e^{-b (J(J+1) - K(K+1))/T} = T/b + (2K+1)/2 - 1/6 + (2K+1)^2 b/(12 T)
+      // + O((b/T)^2): the integral plus the first Euler-Maclaurin end corrections.
+      term.c = (2.0 * k + 1.0) / 2.0 - 1.0 / 6.0;
+      term.d = (2.0 * k + 1.0) * (2.0 * k + 1.0) * hb / 12.0;
+      rotor.k_terms_.push_back(term);
+    }
+    return rotor;
+  }
   rotor.switch_t_k_ = switch_t;
   const double energy_cut = options.level_cut_factor * switch_t;
 
@@ -201,8 +222,45 @@ Moments RotorContribution::SeriesAt(double t_k) const {
   return moments;
 }
 
+Moments RotorContribution::ProlateHybridAt(double t_k) const {
+  // q = sum_K w_K with w_K = g_K e^{-E_K/T} S_K(T), S_K = T/b + c_K + d_K/T. With
+  // u_K = T^2 d ln w_K/dT: <E> = sum p_K u_K and Var = sum p_K (u_K - <E>)^2 + sum p_K T^2 du_K/dT.
+  const double t = t_k, b = hybrid_b_k_;
+  double max_log_weight = -std::numeric_limits<double>::infinity();
+  std::vector<double> log_weight(k_terms_.size()), u(k_terms_.size()), du(k_terms_.size());
+  for (size_t i = 0; i < k_terms_.size(); ++i) {
+    const KTerm& term = k_terms_[i];
+    const double s = t / b + term.c + term.d / t;
+    const double s1 = 1.0 / b - term.d / (t * t);  // dS/dT
+    const double s2 = 2.0 * term.d / (t * t * t);  // d2S/dT2
+    log_weight[i] = std::log(term.degeneracy) - term.energy_k / t + std::log(s);
+    max_log_weight = std::max(max_log_weight, log_weight[i]);
+    u[i] = term.energy_k + t * t * s1 / s;
+    du[i] = 2.0 * t * s1 / s + t * t * (s2 / s - (s1 / s) * (s1 / s));
+  }
+  double sum = 0.0, sum_u = 0.0;
+  std::vector<double> weight(k_terms_.size());
+  for (size_t i = 0; i < k_terms_.size(); ++i) {
+    weight[i] = std::exp(log_weight[i] - max_log_weight);
+    sum += weight[i];
+    sum_u += weight[i] * u[i];
+  }
+  Moments moments;
+  moments.ln_q = max_log_weight + std::log(sum);
+  moments.mean_energy_k = sum_u / sum;
+  double variance = 0.0;
+  for (size_t i = 0; i < k_terms_.size(); ++i) {
+    const double deviation = u[i] - moments.mean_energy_k;
+    variance += weight[i] * (deviation * deviation + t * t * du[i]);
+  }
+  moments.energy_variance_k2 = variance / sum;
+  return moments;
+}
+
 Moments RotorContribution::At(double t_k) const {
-  Moments moments = t_k <= switch_t_k_ ? LevelSumMoments(levels_, t_k) : SeriesAt(t_k);
+  Moments moments = !k_terms_.empty()       ? ProlateHybridAt(t_k)
+                    : t_k <= switch_t_k_ ? LevelSumMoments(levels_, t_k)
+                                         : SeriesAt(t_k);
   moments.ln_q -= ln_symmetry_;
   return moments;
 }

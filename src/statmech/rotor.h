@@ -66,6 +66,18 @@ class RotorContribution {
   // Fixes c2..c4 by matching the level sum at switch_t_k_.
   void MatchTail();
   Moments SeriesAt(double t_k) const;
+  Moments ProlateHybridAt(double t_k) const;
+
+  // Near-prolate tops too elongated for the explicit sum (A/C beyond what max_j allows): K is
+  // summed exactly, J semiclassically (see Nonlinear). One term per K.
+  struct KTerm {
+    double degeneracy = 1.0;  // 1 for K = 0, 2 otherwise
+    double energy_k = 0.0;    // A K^2 + b K, K (lowest level of the K stack)
+    double c = 0.0;           // Euler-Maclaurin constants of the J sum: T/b + c + d/T
+    double d = 0.0;
+  };
+  std::vector<KTerm> k_terms_;
+  double hybrid_b_k_ = 0.0;  // sqrt(B C), K
 
   std::vector<Level> levels_;
   double ln_symmetry_ = 0.0;
