@@ -85,7 +85,14 @@ std::optional<double> ParseQuantity(const std::string& text,
   const std::string unit_text = Trim(std::string(number_end, end));
   const std::string unit_name = unit_text.empty() ? std::string(bare_unit) : unit_text;
   for (const Unit& unit : units) {
-    if (unit_name == unit.name) return value * unit.factor;
+    if (unit_name != unit.name) continue;
+    // A finite number can still overflow in the conversion (1e308 kJ/mol).
+    const double si = value * unit.factor;
+    if (!std::isfinite(si)) {
+      *problem = "'" + text + "' overflows when converted to SI units" + expected;
+      return std::nullopt;
+    }
+    return si;
   }
   *problem = "'" + text + "' has unknown unit '" + unit_text + "'" + expected;
   return std::nullopt;

@@ -159,6 +159,15 @@ class Reader {
                          "UTF-8 text",
                          static_cast<unsigned>(static_cast<unsigned char>(raw[i]))));
       }
+      // A raw control character (tab aside) is never written: strings carry them as escapes.
+      // Refusing them here also keeps them out of the messages that echo a token.
+      const unsigned char byte = static_cast<unsigned char>(raw[i]);
+      if ((byte < 0x20 && byte != '\t') || byte == 0x7f) {
+        Fail(number, column,
+             fmt::format("found the control character 0x{:02x}, expected text (control "
+                         "characters only as escapes inside quoted strings)",
+                         static_cast<unsigned>(byte)));
+      }
       i += static_cast<std::size_t>(length);
       ++column;
     };
@@ -195,7 +204,9 @@ class Reader {
             advance();
             advance();
           } else if (e == 'x' && i + 3 < raw.size() && HexDigit(raw[i + 2]) >= 0 &&
-                     HexDigit(raw[i + 3]) >= 0) {
+                     HexDigit(raw[i + 3]) >= 0 && HexDigit(raw[i + 2]) < 8) {
+            // Only ASCII escapes: a byte above 0x7f alone is not UTF-8, and the writer puts
+            // non-ASCII text as is (found by fuzzing, docs/robustness.md).
             token.text += static_cast<char>(HexDigit(raw[i + 2]) * 16 + HexDigit(raw[i + 3]));
             for (int k = 0; k < 4; ++k) advance();
           } else {

@@ -306,6 +306,42 @@ std::optional<BadByte> FindBadByte(const std::string& text) {
   return std::nullopt;
 }
 
+// The 1-based line where a second YAML document starts, 0 when there is none: a line "---"
+// (alone or followed by a space) after a line with content, or a line with content after a
+// "..." end marker. Comments, blank lines and %-directives are not content.
+int SecondDocumentLine(const std::string& text) {
+  const auto is_marker = [](const std::string& line, const char* marker) {
+    return line.compare(0, 3, marker) == 0 &&
+           (line.size() == 3 || line[3] == ' ' || line[3] == '\t' || line[3] == '\r');
+  };
+  bool seen_content = false, ended = false;
+  int number = 0;
+  std::size_t start = 0;
+  while (start < text.size()) {
+    std::size_t end = text.find('\n', start);
+    if (end == std::string::npos) end = text.size();
+    const std::string line = text.substr(start, end - start);
+    start = end + 1;
+    ++number;
+    const std::size_t first = line.find_first_not_of(" \t\r");
+    if (first == std::string::npos || line[first] == '#' || line[0] == '%') continue;
+    if (is_marker(line, "---")) {
+      if (seen_content || ended) return number;
+      // "--- value": the document's content starts on this line.
+      const std::size_t rest = line.find_first_not_of(" \t\r", 3);
+      if (rest != std::string::npos && line[rest] != '#') seen_content = true;
+      continue;
+    }
+    if (is_marker(line, "...")) {
+      ended = true;
+      continue;
+    }
+    if (ended) return number;
+    seen_content = true;
+  }
+  return 0;
+}
+
 class FileParser {
  public:
   FileParser(const std::string& text,
@@ -886,6 +922,28 @@ void FileParser::ReadRotation(const YAML::Node& node,
          "rotational constants " + NumberList(*explicit_cm1, "{:.6g}") + " cm^-1",
          band);
     explicit_cm1.reset();
+  }
+  // A rigid body has I_C <= I_A + I_B, i.e. 1/C <= 1/A + 1/B (equality when planar). Ground-state
+  // constants exceed it by the inertia defect, a few percent for light planar molecules (H2O:
+  // 2.8 % with A, B, C = 27.88, 14.51, 9.28 cm^-1, from memory of NIST CCCBDB); the 25 % margin
+  // only stops constants no molecule can have, on which the engine's sums give nonsense (a
+  // negative Cp; docs/robustness.md).
+  constexpr double kInertiaDefectMargin = 0.25;
+  if (explicit_cm1 && explicit_cm1->size() == 3) {
+    const double a = (*explicit_cm1)[0], b = (*explicit_cm1)[1], c = (*explicit_cm1)[2];
+    if (1.0 / c > (1.0 / a + 1.0 / b) * (1.0 + kInertiaDefectMargin)) {
+      Fail(explicit_entry->value,
+           explicit_entry->key,
+           "rotational constants " + NumberList(*explicit_cm1, "{:.6g}") +
+               " cm^-1 with 1/C above 1/A + 1/B by " +
+               fmt::format("{:.3g}", 100.0 * (c * (1.0 / a + 1.0 / b) < 1.0
+                                                  ? 1.0 / (c * (1.0 / a + 1.0 / b)) - 1.0
+                                                  : 0.0)) +
+               " %",
+           "constants of a rigid body: 1/C <= 1/A + 1/B (within " +
+               Number(100.0 * kInertiaDefectMargin) + " % for the inertia defect)");
+      explicit_cm1.reset();
+    }
   }
   if (geometry_cm1 && outside_band(*geometry_cm1)) {
     Fail(geometry_entry->value,
@@ -1603,17 +1661,21 @@ std::vector<Species> FileParser::Parse(std::vector<NameRecord>* names) {
                                                 : "which is not valid UTF-8"));
     return {};
   }
+  // yaml-cpp's Load silently keeps the first document only; its LoadAll loops forever on some
+  // inputs that Load reads (found by fuzzing, docs/robustness.md). So a second document is
+  // found from the text: a "---" marker after content, or content after a "..." end marker.
+  if (const int line = SecondDocumentLine(text_); line > 0) {
+    const SourceLocation where{file_name_, line, 1};
+    problems_->Add(file_index_,
+                   line,
+                   1,
+                   where.ToString() +
+                       ": a second YAML document; expected one document per species file");
+    return {};
+  }
   YAML::Node root;
   try {
-    std::vector<YAML::Node> documents = YAML::LoadAll(text_);
-    if (documents.size() > 1) {
-      // yaml-cpp's Load would silently keep the first document only.
-      FailText(documents[1].Mark(),
-               "",
-               "a second YAML document; expected one document per species file");
-      return {};
-    }
-    if (!documents.empty()) root = documents.front();
+    root = YAML::Load(text_);
   } catch (const YAML::Exception& error) {
     // ParserException (and DeepRecursion, one of its kinds) carries the mark of the syntax error.
     FailText(
