@@ -60,6 +60,8 @@ constexpr double kMaxFrequencyScale = 2.0;
 // Dunham-type constants, cm^-1 (magnitude): the strongest bond, CO, has D_0 near 89,500 cm^-1
 // (11.1 eV, from memory); every other constant is far smaller.
 constexpr double kMaxSpectroscopicConstantCm1 = 1.0e5;
+// De / Be above which a diatomic's constants are refused (see ReadDiatomicState).
+constexpr double kMaxCentrifugalToRotational = 1.0e-2;
 // Degeneracies (electronic levels, nuclear-spin weights): lumped atomic manifolds reach a few
 // hundred (common practice).
 constexpr double kMaxDegeneracy = 1.0e6;
@@ -1150,6 +1152,16 @@ std::optional<DiatomicState> FileParser::ReadDiatomicState(const YAML::Node& val
            "a " + unit + " of magnitude at most " + Number(bound));
     } else if (number) {
       *field.target = *number;
+    }
+  }
+  // A centrifugal constant comparable to Be leaves no bound rotational ladder worth the name
+  // (real molecules have De/Be ~ 4 Be^2/we^2 < 1e-3; H2, the extreme, 8e-4): the engine would
+  // silently treat the species as structureless.
+  if (problems_->size() == before && c.de_cm1 > kMaxCentrifugalToRotational * c.be_cm1) {
+    if (const Entry* de = entries->Find("De")) {
+      Fail(de->value, key + ".De", Number(c.de_cm1),
+           "a value below " + Number(kMaxCentrifugalToRotational) + " Be = " +
+               Number(kMaxCentrifugalToRotational * c.be_cm1) + " cm^-1");
     }
   }
   if (problems_->size() != before) return std::nullopt;
