@@ -838,28 +838,35 @@ TEST_CASE("torsion with an intermediate barrier agrees with Pitzer-Gwinn within 
 }
 
 TEST_CASE("torsion levels are converged in the basis and the block split is exact", "[statmech]") {
-  // Two-term potential (dense blocks): compare the block-diagonal eigenvalues with one dense
-  // matrix over all m written out here, and check that a doubled basis moves no level below
-  // the cut by more than the stated 1e-9 relative.
+  // The block-diagonal eigenvalues (residues mod the gcd, mirror blocks computed once, self-mirror
+  // blocks split into even and odd halves) against one dense matrix over all m written out here:
+  // one term of each symmetry (tridiagonal halves) and a two-term potential (dense blocks).
+  // Then check that a doubled basis moves no level below the cut by more than 1e-9 relative.
   const double theta = 3.0;
-  const std::vector<std::pair<int, double>> terms = {{3, 900.0}, {6, -150.0}};
   const int max_m = 60;
   const int size = 2 * max_m + 1;
-  Eigen::MatrixXd h = Eigen::MatrixXd::Zero(size, size);
-  for (int i = 0; i < size; ++i) {
-    const int m = i - max_m;
-    h(i, i) = theta * m * m + 0.5 * (900.0 - 150.0);
-    for (const auto& [k, v] : terms) {
-      if (i + k < size) h(i, i + k) = h(i + k, i) = -0.25 * v;
+  const std::vector<std::vector<std::pair<int, double>>> potentials = {
+      {{1, 400.0}}, {{2, 700.0}}, {{3, 900.0}}, {{4, 300.0}}, {{3, 900.0}, {6, -150.0}}};
+  for (const auto& potential : potentials) {
+    Eigen::MatrixXd h = Eigen::MatrixXd::Zero(size, size);
+    double mean = 0.0;
+    for (const auto& [k, v] : potential) mean += 0.5 * v;
+    for (int i = 0; i < size; ++i) {
+      const int m = i - max_m;
+      h(i, i) = theta * m * m + mean;
+      for (const auto& [k, v] : potential) {
+        if (i + k < size) h(i, i + k) = h(i + k, i) = -0.25 * v;
+      }
+    }
+    Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> solver(h, Eigen::EigenvaluesOnly);
+    const std::vector<double> blocks = TorsionEigenvalues(theta, potential, max_m);
+    REQUIRE(blocks.size() == static_cast<std::size_t>(size));
+    for (int i = 0; i < size; ++i) {
+      // Eigenvalues of matrices of norm ~1e4: rounding ~1e-12 of that.
+      CHECK(blocks[i] == Approx(solver.eigenvalues()(i)).margin(1e-8));
     }
   }
-  Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> solver(h, Eigen::EigenvaluesOnly);
-  const std::vector<double> blocks = TorsionEigenvalues(theta, terms, max_m);
-  REQUIRE(blocks.size() == static_cast<std::size_t>(size));
-  for (int i = 0; i < size; ++i) {
-    // Eigenvalues of matrices of norm ~1e4: rounding ~1e-12 of that.
-    CHECK(blocks[i] == Approx(solver.eigenvalues()(i)).margin(1e-8));
-  }
+  const std::vector<std::pair<int, double>> terms = {{3, 900.0}, {6, -150.0}};
   const TorsionContribution torsion(theta, 3, terms);
   const int m_final = torsion.basis_max_m();
   const std::vector<double> base = TorsionEigenvalues(theta, terms, m_final);

@@ -4,6 +4,7 @@
 #include "fit/fitter.h"
 
 #include <algorithm>
+#include <array>
 #include <cmath>
 #include <cstddef>
 #include <limits>
@@ -78,6 +79,81 @@ void AddRow(Triangle8& r, Row8 row) {
 }
 // The constraint matrix has 14 columns and at most 7 rows (4 or 5 continuity, 2 pinning).
 constexpr int kMaxConstraints = 7;
+// C (one row per constraint) and d, with fixed capacity: built for every search candidate.
+using ConstraintMatrix = Eigen::Matrix<double, Eigen::Dynamic, 14, 0, kMaxConstraints, 14>;
+using ConstraintVector = Eigen::Matrix<double, Eigen::Dynamic, 1, 0, kMaxConstraints, 1>;
+
+// min |R x - g| subject to C x = d, R block-diagonal upper triangular (two nonsingular 7 x 7
+// blocks): the search's solve on the triangular factor of a split. With y = R x the problem
+// becomes min |y - g| subject to M y = d, M = C R^-1: the point of an affine set nearest to g.
+// M^T = Q1 S (Householder QR, S upper triangular), so the set is Q1^T y = w with S^T w = d, and
+// y = g - Q1 (Q1^T g - w). Written out on fixed arrays: at this size (14 x at most 7) Eigen's
+// general routines cost several times the arithmetic (docs/performance.md).
+using Matrix14 = Eigen::Matrix<double, 14, 14>;
+using Vector14 = Eigen::Matrix<double, 14, 1>;
+Vector14 SolveOnFactor(const Matrix14& r, const Vector14& g, const ConstraintMatrix& c,
+                       const ConstraintVector& d) {
+  const int k = static_cast<int>(c.rows());
+  const auto block_start = [](int i) { return i < 7 ? 0 : 7; };
+  // a = M^T = R^-T C^T, column by column (forward substitution with the lower triangle R^T).
+  double a[14][kMaxConstraints];
+  for (int j = 0; j < k; ++j) {
+    for (int i = 0; i < 14; ++i) {
+      double value = c(j, i);
+      for (int l = block_start(i); l < i; ++l) value -= r(l, i) * a[l][j];
+      a[i][j] = value / r(i, i);
+    }
+  }
+  // Householder QR of a: reflector j is I - beta_j v_j v_j^T with v_j zero above row j.
+  double v[kMaxConstraints][14];
+  double beta[kMaxConstraints];
+  double diagonal[kMaxConstraints];
+  for (int j = 0; j < k; ++j) {
+    double norm2 = 0.0;
+    for (int i = j; i < 14; ++i) norm2 += a[i][j] * a[i][j];
+    const double alpha = a[j][j] >= 0.0 ? -std::sqrt(norm2) : std::sqrt(norm2);
+    double v_norm2 = 0.0;
+    for (int i = j; i < 14; ++i) {
+      v[j][i] = i == j ? a[i][j] - alpha : a[i][j];
+      v_norm2 += v[j][i] * v[j][i];
+    }
+    beta[j] = v_norm2 > 0.0 ? 2.0 / v_norm2 : 0.0;
+    for (int l = j + 1; l < k; ++l) {
+      double dot = 0.0;
+      for (int i = j; i < 14; ++i) dot += v[j][i] * a[i][l];
+      const double scale = beta[j] * dot;
+      for (int i = j; i < 14; ++i) a[i][l] -= scale * v[j][i];
+    }
+    diagonal[j] = alpha;  // S(j, j); S(j, l > j) = a[j][l]
+  }
+  // w from S^T w = d (forward substitution), then y = Q [w; Q2^T g].
+  double y[14];
+  for (int i = 0; i < 14; ++i) y[i] = g[i];
+  for (int j = 0; j < k; ++j) {  // y = Q^T g
+    double dot = 0.0;
+    for (int i = j; i < 14; ++i) dot += v[j][i] * y[i];
+    for (int i = j; i < 14; ++i) y[i] -= beta[j] * dot * v[j][i];
+  }
+  for (int j = 0; j < k; ++j) {
+    double value = d[j];
+    for (int l = 0; l < j; ++l) value -= a[l][j] * y[l];
+    y[j] = value / diagonal[j];
+  }
+  for (int j = k - 1; j >= 0; --j) {  // y = Q y
+    double dot = 0.0;
+    for (int i = j; i < 14; ++i) dot += v[j][i] * y[i];
+    for (int i = j; i < 14; ++i) y[i] -= beta[j] * dot * v[j][i];
+  }
+  // x = R^-1 y (back substitution within each block).
+  Vector14 x;
+  for (int i = 13; i >= 0; --i) {
+    double value = y[i];
+    const int end = i < 7 ? 7 : 14;
+    for (int l = i + 1; l < end; ++l) value -= r(i, l) * x[l];
+    x[i] = value / r(i, i);
+  }
+  return x;
+}
 
 // Rows of the linear maps from the scaled coefficients b to the functions at tau.
 Row7 CpRow(double tau) {
@@ -277,27 +353,28 @@ class ConstrainedFitter {
   }
 
   // Equality constraints C x = d at t_mid_k: continuity, then the pinned reference state; rows
-  // scaled to unit length.
-  void BuildConstraints(double t_mid_k, Matrix& c, Vector& d) const {
+  // scaled to unit length. Matrix and Vector for Solve(); ConstraintMatrix and ConstraintVector
+  // (no allocation; the row norms may round differently) for the search.
+  template <typename CMatrix, typename DVector>
+  void BuildConstraints(double t_mid_k, CMatrix& c, DVector& d) const {
     const double tau_mid = t_mid_k / kScaleTemperatureK;
-    std::vector<Row7> continuity = {CpRow(tau_mid), DCpRow(tau_mid), HRow(tau_mid), SRow(tau_mid)};
-    if (options_.continuous_second_derivative) continuity.push_back(D2CpRow(tau_mid));
-    const Eigen::Index num_constraints =
-        static_cast<Eigen::Index>(continuity.size()) + (reference_.pinned ? 2 : 0);
-    c = Matrix::Zero(num_constraints, 14);
-    d = Vector::Zero(num_constraints);
+    const std::array<Row7, 5> continuity = {CpRow(tau_mid), DCpRow(tau_mid), HRow(tau_mid),
+                                            SRow(tau_mid), D2CpRow(tau_mid)};
+    const Eigen::Index num_continuity = options_.continuous_second_derivative ? 5 : 4;
+    const Eigen::Index num_constraints = num_continuity + (reference_.pinned ? 2 : 0);
+    c.setZero(num_constraints, 14);
+    d.setZero(num_constraints);
     Eigen::Index k = 0;
-    for (const Row7& row : continuity) {
-      c.block<1, 7>(k, 0) = row;
-      c.block<1, 7>(k, 7) = -row;
-      ++k;
+    for (; k < num_continuity; ++k) {
+      c.template block<1, 7>(k, 0) = continuity[static_cast<std::size_t>(k)];
+      c.template block<1, 7>(k, 7) = -continuity[static_cast<std::size_t>(k)];
     }
     if (reference_.pinned) {
       const double tau_ref = constants::kReferenceTemperature / kScaleTemperatureK;
       const Eigen::Index offset = constants::kReferenceTemperature < t_mid_k ? 0 : 7;
-      c.block<1, 7>(k, offset) = HRow(tau_ref);
+      c.template block<1, 7>(k, offset) = HRow(tau_ref);
       d[k++] = reference_.h_over_rt;
-      c.block<1, 7>(k, offset) = SRow(tau_ref);
+      c.template block<1, 7>(k, offset) = SRow(tau_ref);
       d[k++] = reference_.s_over_r;
     }
     // Rows of unit length: the same constraints, better balanced for the factorisation.
@@ -330,9 +407,9 @@ class ConstrainedFitter {
   // The objective of Solve(t_mid_k).objective, computed for the search (docs/performance.md):
   // the same constrained least-squares problem, but on the 14 x 14 block-diagonal triangular
   // factor of the split (from PrepareSearch) instead of the 3n x 14 design matrix, so that each
-  // candidate costs a 14-variable QR solve plus one pass over the rows for the residuals. Both are
-  // QR-based and backward stable; they agree to ~1e-9 relative (tests/fit_test.cc). Returns NaN
-  // when t_mid_k leaves too few points on a side.
+  // candidate costs a few 14-variable triangular and QR solves plus one pass over the rows for the
+  // residuals. Both are orthogonal-factor methods; they agree to ~1e-9 relative
+  // (tests/fit_test.cc). Returns NaN when t_mid_k leaves too few points on a side.
   double SearchObjective(double t_mid_k) const {
     SEVENFOLD_ASSERT(!below_.empty());
     const std::vector<double>& t = exact_.t_k;
@@ -343,8 +420,6 @@ class ConstrainedFitter {
         n - split < static_cast<std::size_t>(kMinPointsPerRange)) {
       return std::numeric_limits<double>::quiet_NaN();
     }
-    using Matrix14 = Eigen::Matrix<double, 14, 14>;
-    using Vector14 = Eigen::Matrix<double, 14, 1>;
     Matrix14 factor = Matrix14::Zero();
     Vector14 target;
     const Triangle8& low = below_[split];
@@ -354,28 +429,10 @@ class ConstrainedFitter {
     target.head<7>() = low.col(7).head<7>();
     target.tail<7>() = high.col(7).head<7>();
 
-    Matrix c;
-    Vector d;
+    ConstraintMatrix c;
+    ConstraintVector d;
     BuildConstraints(t_mid_k, c, d);
-    const int num_constraints = static_cast<int>(c.rows());
-    // Null space of C as in Solve(), with fixed-capacity matrices (no allocation per candidate).
-    using ConstraintsT = Eigen::Matrix<double, 14, Eigen::Dynamic, 0, 14, kMaxConstraints>;
-    using NullBasis = Eigen::Matrix<double, 14, Eigen::Dynamic, 0, 14, 14>;
-    using SmallVector = Eigen::Matrix<double, Eigen::Dynamic, 1, 0, 14, 1>;
-    const ConstraintsT c_transpose = c.transpose();
-    const Eigen::ColPivHouseholderQR<ConstraintsT> qr(c_transpose);
-    const Matrix14 q = qr.householderQ();
-    const NullBasis q2 = q.rightCols(14 - num_constraints);
-    const SmallVector permuted = qr.colsPermutation().transpose() * SmallVector(d);
-    const SmallVector y = qr.matrixR()
-                              .topLeftCorner(num_constraints, num_constraints)
-                              .transpose()
-                              .triangularView<Eigen::Lower>()
-                              .solve(permuted);
-    Vector14 x = q.leftCols(num_constraints) * y;
-    const NullBasis reduced = factor * q2;
-    const Eigen::ColPivHouseholderQR<NullBasis> reduced_qr(reduced);
-    x += q2 * reduced_qr.solve(Vector14(target - factor * x));
+    const Vector14 x = SolveOnFactor(factor, target, c, d);
 
     // Each residual is row . [x_range; -1]: one 8-wide dot product per row.
     const std::size_t low_rows = 3 * split;
@@ -389,10 +446,15 @@ class ConstrainedFitter {
     std::vector<double>& residual = residual_scratch_;
     residual.resize(rows_.size());
     double largest = 0.0;
-    for (std::size_t k = 0; k < rows_.size(); ++k) {
-      residual[k] = std::fabs(rows_[k].dot(k < low_rows ? low_x : high_x));
-      largest = std::max(largest, residual[k]);
-    }
+    const auto residuals = [&](std::size_t begin, std::size_t end, const Row8& coefficients) {
+      for (std::size_t k = begin; k < end; ++k) {
+        const double value = std::fabs(rows_[k].dot(coefficients));
+        residual[k] = value;
+        largest = std::max(largest, value);
+      }
+    };
+    residuals(0, low_rows, low_x);
+    residuals(low_rows, rows_.size(), high_x);
     if (!(largest > 0.0)) return largest == 0.0 ? 0.0 : std::numeric_limits<double>::quiet_NaN();
     const double inverse_largest = 1.0 / largest;
     double sum = 0.0;

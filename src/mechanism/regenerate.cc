@@ -27,7 +27,8 @@ FitOptions FitOptionsFor(const Species& species, const RegenerateOptions& option
 }
 
 ExactCurves ExactCurvesFor(const Species& species) {
-  const SpeciesThermo thermo(species);
+  // Exact up to the top of the fit grid, and no further: hindered-rotor ladders then stop there.
+  const SpeciesThermo thermo(species, species.temperatures.high_k);
   ExactCurves curves;
   curves.t_k = FitGrid(species.temperatures.low_k, species.temperatures.high_k);
   for (const double t : curves.t_k) {

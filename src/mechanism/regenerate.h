@@ -51,7 +51,8 @@ EntriesFile MakeEntriesFile(const std::vector<SpeciesFit>& results, const Regene
 // The fit options a species gets under `options`.
 FitOptions FitOptionsFor(const Species& species, const RegenerateOptions& options);
 
-// Exact dimensionless curves of a species on the fit grid of its temperature range.
+// Exact dimensionless curves of a species on the fit grid of its temperature range (the model
+// built exact up to the range's top only: see SpeciesThermo).
 ExactCurves ExactCurvesFor(const Species& species);
 
 // A one-line description of the physical model and fit options used for a species; written

@@ -6,13 +6,13 @@
 namespace sevenfold {
 namespace {
 
-// Levels with E/T beyond this x are skipped. exp(-100) = 3.7e-44: such a level adds less than
-// 1e-40 of the ground level's weight to the sum, far below the last bit of the sum, the mean
-// energy and the variance (each at least ~1e-16 of its leading term), so skipping it changes
-// nothing in the results (checked bit for bit on the demo and generated species,
-// docs/performance.md), and it spares the exponential: for a torsion or a large rotor most
-// levels lie there at the low temperatures of a fit grid.
-constexpr double kNegligibleExponent = 100.0;
+// Levels with E/T beyond this x are skipped. exp(-50) = 1.9e-22 per unit degeneracy; with a
+// level density growing as E^(1/2) (a nonlinear top; ladders in one or two dimensions thin out
+// faster) all skipped levels together weigh ~x^(1/2) e^-x ~ 1e-21 of q and move the variance by
+// ~x^2.5 e^-x ~ 3e-18 of itself: below the last bit of every result. It spares most
+// exponentials of a torsion or a large rotor: half the levels summed at 100 lie beyond 50
+// (docs/performance.md).
+constexpr double kNegligibleExponent = 50.0;
 
 }  // namespace
 

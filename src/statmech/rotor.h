@@ -17,8 +17,11 @@ struct RotorOptions {
   // asymptotic series beyond it has relative error of order (theta/T)^5 there.
   double switch_factor = 30.0;
   // Levels with E / k > level_cut_factor * T_switch are dropped: their weight is below
-  // exp(-50) ~ 2e-22 of the ground level at T_switch.
-  double level_cut_factor = 50.0;
+  // exp(-40) ~ 4e-18 of the ground level at T_switch, and all of them together (a level density
+  // growing as E^(1/2) for a nonlinear top) below ~1e-16 of q and ~1e-13 of Var(E) there. The
+  // number of levels of an asymmetric top, and the diagonalisation cost, grow as this factor to
+  // the power 1 and 1.5 (docs/performance.md).
+  double level_cut_factor = 40.0;
   // Cap on J for asymmetric and symmetric tops: keeps very prolate or oblate tops affordable
   // by lowering T_switch (then the series is used from a lower temperature).
   int max_j = 400;

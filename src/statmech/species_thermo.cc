@@ -62,7 +62,8 @@ struct SpeciesThermo::Model {
   }
 };
 
-SpeciesThermo::SpeciesThermo(const Species& species) : model_(std::make_unique<Model>()) {
+SpeciesThermo::SpeciesThermo(const Species& species, double highest_temperature_k)
+    : model_(std::make_unique<Model>()) {
   Model& model = *model_;
   model.name = species.name;
   model.location = species.location;
@@ -186,8 +187,10 @@ SpeciesThermo::SpeciesThermo(const Species& species) : model_(std::make_unique<M
         fourier_k.emplace_back(k, v_j_per_mol / kGasConstant);
       }
       try {
+        TorsionOptions torsion_options;
+        torsion_options.top_temperature_k = highest_temperature_k;
         model.torsions.emplace_back(torsion.rotational_constant_cm1 * kWavenumberToKelvin,
-                                    torsion.symmetry, fourier_k);
+                                    torsion.symmetry, fourier_k, torsion_options);
       } catch (const Error& error) {
         fail(fmt::format("torsion {}: {}", i, error.what()));
       }

@@ -31,7 +31,10 @@ inline constexpr double kMaxTemperatureK = 20000.0;
 class SpeciesThermo {
  public:
   // Throws Error (naming the species and its file location) when the model cannot be built.
-  explicit SpeciesThermo(const Species& species);
+  // Exact to rounding up to highest_temperature_k; above it hindered rotors use their matched
+  // asymptotic tail (statmech/torsion.h), which is cheaper to build: a fit passes its own
+  // highest temperature.
+  explicit SpeciesThermo(const Species& species, double highest_temperature_k = kMaxTemperatureK);
   ~SpeciesThermo();
   SpeciesThermo(SpeciesThermo&&) noexcept;
   SpeciesThermo& operator=(SpeciesThermo&&) noexcept;

@@ -17,6 +17,9 @@
 namespace sevenfold {
 namespace {
 
+static_assert(TorsionOptions{}.top_temperature_k == kMaxTemperatureK,
+              "torsion.h restates the engine's top temperature");
+
 // Points for the range of V(phi): the cosine series has at most a few dozen terms, so 4096
 // samples find its extremes to far better than the margin they feed.
 constexpr int kPotentialSamples = 4096;
@@ -53,51 +56,92 @@ Terms Analyse(const std::vector<std::pair<int, double>>& fourier_k) {
   return terms;
 }
 
-// Eigenvalues of one block m = r, r + g, r + 2g, ... within [-max_m, max_m].
-void AppendBlock(double theta_k, const Terms& terms, int residue, int max_m,
-                 std::vector<double>& out) {
-  const int g = terms.gcd;
-  // The smallest m >= -max_m with m = residue (mod g).
-  int first = -max_m + ((residue + max_m) % g + g) % g;
-  std::vector<int> ms;
-  for (int m = first; m <= max_m; m += g) ms.push_back(m);
-  const int n = static_cast<int>(ms.size());
-  if (n == 0) return;
-  Eigen::VectorXd diagonal(n);
-  for (int i = 0; i < n; ++i) diagonal(i) = theta_k * ms[i] * ms[i] + terms.mean_k;
-  if (terms.nonzero.empty() || n == 1) {
-    for (int i = 0; i < n; ++i) out.push_back(diagonal(i));
-    return;
+// <m|H|m2> in the free-rotor basis: theta m^2 + <V> on the diagonal, -V_k / 4 where |m - m2| = k.
+double Element(double theta_k, const Terms& terms, int m, int m2) {
+  double value = m == m2 ? theta_k * m * m + terms.mean_k : 0.0;
+  for (const auto& [k, v_k] : terms.nonzero) {
+    if (m - m2 == k || m2 - m == k) value -= 0.25 * v_k;
   }
-  if (terms.nonzero.size() == 1 && terms.nonzero[0].first == g) {
-    // One cosine term: neighbours in the block couple, nothing else. Eigenvalues only, by
-    // implicit QL (statmech/tridiagonal.h; it scales its input, which Eigen's tridiagonal QL does
-    // not, and costs a few times less, docs/performance.md).
-    std::vector<double> values(diagonal.data(), diagonal.data() + n);
-    for (const double value : SymmetricTridiagonalEigenvalues(
-             std::move(values), std::vector<double>(n - 1, -0.25 * terms.nonzero[0].second))) {
+  return value;
+}
+
+// Appends the eigenvalues of the n x n symmetric matrix with elements entry(i, j). With
+// `tridiagonal` only entry(i, i) and entry(i, i + 1) are read: eigenvalues by implicit QL
+// (statmech/tridiagonal.h; it scales its input, which Eigen's tridiagonal QL does not, and costs
+// a few times less, docs/performance.md); otherwise by Eigen's dense symmetric solver.
+template <typename Entry>
+void AppendEigenvalues(int n, const Entry& entry, bool tridiagonal, std::vector<double>& out) {
+  if (n == 0) return;
+  if (tridiagonal) {
+    std::vector<double> diagonal(n), coupling(n - 1);
+    for (int i = 0; i < n; ++i) diagonal[i] = entry(i, i);
+    for (int i = 0; i + 1 < n; ++i) coupling[i] = entry(i, i + 1);
+    for (const double value :
+         SymmetricTridiagonalEigenvalues(std::move(diagonal), std::move(coupling))) {
       out.push_back(value);
     }
     return;
   }
-  Eigen::MatrixXd matrix = Eigen::MatrixXd::Zero(n, n);
-  matrix.diagonal() = diagonal;
-  for (const auto& [k, v_k] : terms.nonzero) {
-    const int step = k / g;
-    for (int i = 0; i + step < n; ++i) {
-      matrix(i, i + step) += -0.25 * v_k;
-      matrix(i + step, i) += -0.25 * v_k;
-    }
+  Eigen::MatrixXd matrix(n, n);
+  for (int i = 0; i < n; ++i) {
+    for (int j = i; j < n; ++j) matrix(i, j) = matrix(j, i) = entry(i, j);
   }
   Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> solver(matrix, Eigen::EigenvaluesOnly);
   SEVENFOLD_ASSERT(solver.info() == Eigen::Success);
   for (int i = 0; i < n; ++i) out.push_back(solver.eigenvalues()(i));
 }
 
+// Eigenvalues of the block m = r (mod g), |m| <= max_m, with r = -r (mod g): the block is closed
+// under m -> -m, which commutes with H (the potential is a cosine series), so it splits into the
+// even states (|m> + |-m>) / sqrt 2 (and |0>) and the odd states (|m> - |-m>) / sqrt 2, m > 0:
+// two blocks of half the size, as the Wang blocks of rotor.cc [GordyCook1984, ch. 7]. In the
+// split basis <m, +-|H|m2, +-> = <m|H|m2> +- <m|H|-m2>, and <0|H|m, +> = sqrt 2 <0|H|m>.
+void AppendMirrorSymmetricBlock(double theta_k, const Terms& terms, int residue, int max_m,
+                                std::vector<double>& out) {
+  const int g = terms.gcd;
+  std::vector<int> positive;  // m > 0 of the block, ascending
+  for (int m = residue == 0 ? g : residue; m <= max_m; m += g) positive.push_back(m);
+  // One term (k = g) couples neighbours only, in either half.
+  const bool tridiagonal = terms.nonzero.size() <= 1;
+  for (const int sign : {+1, -1}) {
+    std::vector<int> states;  // 0 stands for |0>, m > 0 for the pair (|m> +- |-m>) / sqrt 2
+    if (residue == 0 && sign > 0) states.push_back(0);
+    states.insert(states.end(), positive.begin(), positive.end());
+    const auto entry = [&](int i, int j) {
+      const int m = states[i], m2 = states[j];
+      if (m == 0 && m2 == 0) return Element(theta_k, terms, 0, 0);
+      if (m == 0 || m2 == 0) return std::sqrt(2.0) * Element(theta_k, terms, m, m2);
+      return Element(theta_k, terms, m, m2) + sign * Element(theta_k, terms, m, -m2);
+    };
+    AppendEigenvalues(static_cast<int>(states.size()), entry, tridiagonal, out);
+  }
+}
+
+// All eigenvalues over |m| <= max_m. H conserves m modulo g, the gcd of the potential's k, so it
+// is block diagonal in the residue r. m -> -m maps block r onto block g - r with the same
+// spectrum, which is therefore computed once; a block that maps onto itself is split in two.
 std::vector<double> Eigenvalues(double theta_k, const Terms& terms, int max_m) {
   std::vector<double> values;
   values.reserve(2 * max_m + 1);
-  for (int r = 0; r < terms.gcd; ++r) AppendBlock(theta_k, terms, r, max_m, values);
+  const int g = terms.gcd;
+  for (int r = 0; r < g; ++r) {
+    const int mirror = (g - r) % g;
+    if (mirror == r) {
+      AppendMirrorSymmetricBlock(theta_k, terms, r, max_m, values);
+    } else if (mirror > r) {
+      const std::size_t first = values.size();
+      // Block r alone: its mirror has the same eigenvalues, appended as copies.
+      std::vector<int> ms;
+      for (int m = -max_m + ((r + max_m) % g + g) % g; m <= max_m; m += g) ms.push_back(m);
+      const auto entry = [&](int i, int j) { return Element(theta_k, terms, ms[i], ms[j]); };
+      AppendEigenvalues(static_cast<int>(ms.size()), entry, terms.nonzero.size() <= 1, values);
+      const std::size_t last = values.size();
+      for (std::size_t i = first; i < last; ++i) {
+        const double value = values[i];  // a copy: push_back may not take a reference into values
+        values.push_back(value);
+      }
+    }
+  }
   std::sort(values.begin(), values.end());
   return values;
 }
@@ -128,7 +172,7 @@ TorsionContribution::TorsionContribution(double theta_k, int symmetry,
 
   // Sum explicitly up to the top of the engine's range if the basis this needs is affordable;
   // otherwise lower the top to what the capped basis converges, and hand over to the tail there.
-  double top_t = kMaxTemperatureK;
+  double top_t = std::min(options.top_temperature_k, kMaxTemperatureK);
   double switch_t = std::numeric_limits<double>::infinity();
   // Leave room for the convergence rounds, which grow the basis by a quarter each.
   const int affordable_m = static_cast<int>(cap_m / 1.6);

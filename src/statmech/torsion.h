@@ -26,6 +26,10 @@ struct TorsionOptions {
   // temperature and the matched asymptotic tail of rotor.h takes over.
   int max_m_tridiagonal = 4000;
   int max_m_dense = 500;
+  // Highest temperature summed explicitly, K: the levels kept, and the basis, grow with it (the
+  // cost as its first power). Above it the matched tail of rotor.h is used. The engine's top
+  // (kMaxTemperatureK) by default; a fit needs only its own highest temperature.
+  double top_temperature_k = 20000.0;
 };
 
 // The contribution of one torsion: q = sum_i exp(-(E_i - E_0)/T) / n, with E_i the eigenvalues of
