@@ -291,13 +291,28 @@ class ConstrainedFitter {
           t_mid_k, split, n - split, kMinPointsPerRange));
     }
 
-    Matrix a = Matrix::Zero(static_cast<Eigen::Index>(rows_.size()), 14);
-    Vector b(static_cast<Eigen::Index>(rows_.size()));
-    for (std::size_t row = 0; row < rows_.size(); ++row) {
-      const Eigen::Index r = static_cast<Eigen::Index>(row);
-      a.block<1, 7>(r, row / 3 < split ? 0 : 7) = rows_[row].head<7>();
-      b[r] = rows_[row][7];
+    // |A x - b|^2 = |R x - Q^T b|^2 + (a constant) with A = Q R the block-diagonal QR of the
+    // weighted rows: the problem is solved on the 14 x 14 factor, and the residuals are taken
+    // from the rows themselves. The factors come from PrepareSearch() when it ran, else from the
+    // same Givens updates over the rows of each range.
+    Triangle8 low_factor = Triangle8::Zero(), high_factor = Triangle8::Zero();
+    if (!below_.empty()) {
+      low_factor = below_[split];
+      high_factor = above_[split];
+    } else {
+      // In PrepareSearch()'s order (the high range from the top down), so that a fit at a fixed
+      // mid temperature and the automatic fit that chose it give the same bits.
+      for (std::size_t k = 0; k < 3 * split; ++k) AddRow(low_factor, rows_[k]);
+      for (std::size_t i = n; i-- > split;) {
+        for (std::size_t k = 3 * i; k < 3 * i + 3; ++k) AddRow(high_factor, rows_[k]);
+      }
     }
+    Matrix a = Matrix::Zero(14, 14);
+    Vector b(14);
+    a.topLeftCorner(7, 7) = low_factor.topLeftCorner<7, 7>();
+    a.bottomRightCorner(7, 7) = high_factor.topLeftCorner<7, 7>();
+    b.head(7) = low_factor.col(7).head<7>();
+    b.tail(7) = high_factor.col(7).head<7>();
     Matrix c;
     Vector d;
     BuildConstraints(t_mid_k, c, d);
@@ -305,7 +320,8 @@ class ConstrainedFitter {
 
     // Null-space method. C^T P = Q [R; 0] (column-pivoted Householder QR); with Q = [Q1 Q2],
     // every x = Q1 R^-T P^T d + Q2 z satisfies C x = d, and z solves the unconstrained
-    // least-squares problem min |A Q2 z - (b - A x_p)| by complete orthogonal decomposition.
+    // least-squares problem min |A Q2 z - (b - A x_p)| by complete orthogonal decomposition
+    // (A and b here: the factor and Q^T b above).
     const Eigen::ColPivHouseholderQR<Matrix> qr(c.transpose());
     SEVENFOLD_ASSERT(qr.rank() == num_constraints);  // the constraints are independent
     const Matrix q = qr.householderQ();
@@ -336,7 +352,12 @@ class ConstrainedFitter {
     solution.polynomial.high = ToKelvinCoefficients(x, 7);
 
     // The p-norm of the normalised residuals, scaled by the largest to avoid overflow.
-    const Vector residual = a * x - b;
+    Vector residual(static_cast<Eigen::Index>(rows_.size()));
+    for (std::size_t k = 0; k < rows_.size(); ++k) {
+      Row8 coefficients;
+      coefficients << x.segment<7>(k < 3 * split ? 0 : 7).transpose(), -1.0;
+      residual[static_cast<Eigen::Index>(k)] = rows_[k].dot(coefficients);
+    }
     const double largest = residual.cwiseAbs().maxCoeff();
     double sum = 0.0;
     if (largest > 0.0) {
