@@ -42,30 +42,32 @@ std::vector<double> AsymmetricTopLevels(int j, double a_k, double b_k, double c_
   const auto coupling = [&](int k) {
     return 0.25 * (b_k - c_k) * std::sqrt((j - k) * (j + k + 1.0) * (j - k - 1.0) * (j + k + 2.0));
   };
-  std::vector<double> energies;
-  energies.reserve(2 * j + 1);
+  std::vector<double> energies(2 * j + 1);
+  std::size_t filled = 0;
+  // Scratch for one block's off-diagonal (the diagonal is built in place in `energies`).
+  std::vector<double> block_coupling(j / 2 + 2);
   // One Wang block over K = first_k, first_k + 2, ..., <= J. first_scale multiplies the first
   // coupling (sqrt 2 between |0> and |2,+>); first_shift adds to the first diagonal element
   // (+-<J,1|H|J,-1> = +-(B-C)/4 J(J+1) for O+ and O-).
   const auto append_block = [&](int first_k, double first_scale, double first_shift) {
     if (first_k > j) return;
-    std::vector<double> block_diagonal, block_coupling;
-    for (int k = first_k; k <= j; k += 2) {
-      block_diagonal.push_back(diagonal(k));
-      if (k + 2 <= j) block_coupling.push_back(coupling(k));
+    double* block_diagonal = energies.data() + filled;
+    int n = 0;
+    for (int k = first_k; k <= j; k += 2, ++n) {
+      block_diagonal[n] = diagonal(k);
+      block_coupling[n] = k + 2 <= j ? coupling(k) : 0.0;
     }
-    block_diagonal.front() += first_shift;
-    if (!block_coupling.empty()) block_coupling.front() *= first_scale;
-    for (const double value : SymmetricTridiagonalEigenvalues(std::move(block_diagonal),
-                                                              std::move(block_coupling))) {
-      energies.push_back(value);
-    }
+    block_diagonal[0] += first_shift;
+    block_coupling[0] *= first_scale;
+    SymmetricTridiagonalEigenvaluesInPlace(block_diagonal, block_coupling.data(), n);
+    filled += static_cast<std::size_t>(n);
   };
   const double k1_coupling = 0.25 * (b_k - c_k) * jj;
   append_block(0, std::sqrt(2.0), 0.0);  // E+: K = 0, 2, 4, ...
   append_block(2, 1.0, 0.0);             // E-: K = 2, 4, ...
   append_block(1, 1.0, k1_coupling);     // O+: K = 1, 3, ...
   append_block(1, 1.0, -k1_coupling);    // O-
+  SEVENFOLD_ASSERT(filled == energies.size());
   return energies;
 }
 

@@ -17,15 +17,19 @@ constexpr int kMaxIterationsPerEigenvalue = 60;
 
 std::vector<double> SymmetricTridiagonalEigenvalues(std::vector<double> diagonal,
                                                     std::vector<double> off_diagonal) {
-  std::vector<double>& d = diagonal;
-  const int n = static_cast<int>(d.size());
-  if (n <= 1) return d;
-  std::vector<double>& e = off_diagonal;
-  e.resize(n);
+  const int n = static_cast<int>(diagonal.size());
+  if (n <= 1) return diagonal;
+  off_diagonal.resize(n);
+  SymmetricTridiagonalEigenvaluesInPlace(diagonal.data(), off_diagonal.data(), n);
+  return diagonal;
+}
+
+void SymmetricTridiagonalEigenvaluesInPlace(double* d, double* e, int n) {
+  if (n <= 1) return;
   e[n - 1] = 0.0;
   double scale = 0.0;
   for (int i = 0; i < n; ++i) scale = std::max({scale, std::fabs(d[i]), std::fabs(e[i])});
-  if (scale == 0.0) return d;
+  if (scale == 0.0) return;
   for (int i = 0; i < n; ++i) {
     d[i] /= scale;
     e[i] /= scale;
@@ -72,9 +76,8 @@ std::vector<double> SymmetricTridiagonalEigenvalues(std::vector<double> diagonal
       e[m] = 0.0;
     }
   }
-  for (double& value : d) value *= scale;
-  std::sort(d.begin(), d.end());
-  return d;
+  for (int i = 0; i < n; ++i) d[i] *= scale;
+  std::sort(d, d + n);
 }
 
 }  // namespace sevenfold

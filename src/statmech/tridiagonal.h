@@ -18,4 +18,9 @@ namespace sevenfold {
 std::vector<double> SymmetricTridiagonalEigenvalues(std::vector<double> diagonal,
                                                     std::vector<double> off_diagonal);
 
+// The same in place, without allocation: d[0..n) holds the diagonal on entry and the eigenvalues,
+// ascending, on return; e[0..n) holds the off-diagonal in e[0..n-1) on entry (e[n-1] is
+// scratch) and is overwritten. For the many small blocks of an asymmetric top (rotor.cc).
+void SymmetricTridiagonalEigenvaluesInPlace(double* d, double* e, int n);
+
 }  // namespace sevenfold
