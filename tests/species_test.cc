@@ -8,8 +8,10 @@
 #include <algorithm>
 #include <catch2/catch.hpp>
 #include <cmath>
+#include <cstdlib>
 #include <filesystem>
 #include <fstream>
+#include <iterator>
 #include <string>
 #include <vector>
 
@@ -808,6 +810,291 @@ TEST_CASE("molar mass sums IUPAC atomic weights and corrects for the electrons",
   heavy_water.composition = {{"D", 2}, {"O", 1}};
   CHECK_THAT(heavy_water.MolarMassKgPerMol(),
              WithinRel((2.0 * 2.014101777844 + 15.999) * 1e-3, kSumTolerance));
+}
+
+// Every field of two readings of one species, compared exactly: reading item by item must give
+// the whole-document reading's values bit for bit, location and digest included.
+void CheckSameSpecies(const Species& a, const Species& b) {
+  INFO("species " << a.name << " at " << a.location.ToString());
+  CHECK(a.name == b.name);
+  CHECK(a.composition == b.composition);
+  CHECK(a.charge == b.charge);
+  CHECK(a.formation_enthalpy_j_per_mol == b.formation_enthalpy_j_per_mol);
+  CHECK(a.shape == b.shape);
+  CHECK(a.symmetry_number == b.symmetry_number);
+  CHECK(a.rotational_constants_cm1 == b.rotational_constants_cm1);
+  CHECK(a.vibrations_cm1 == b.vibrations_cm1);
+  CHECK(a.frequency_scale == b.frequency_scale);
+  REQUIRE(a.electronic_levels.size() == b.electronic_levels.size());
+  for (std::size_t i = 0; i < a.electronic_levels.size(); ++i) {
+    CHECK(a.electronic_levels[i].energy_cm1 == b.electronic_levels[i].energy_cm1);
+    CHECK(a.electronic_levels[i].degeneracy == b.electronic_levels[i].degeneracy);
+  }
+  CHECK(a.optical_isomers == b.optical_isomers);
+  CHECK(a.centrifugal_distortion_cm1 == b.centrifugal_distortion_cm1);
+  CHECK(a.temperatures.low_k == b.temperatures.low_k);
+  CHECK(a.temperatures.mid_k == b.temperatures.mid_k);
+  CHECK(a.temperatures.high_k == b.temperatures.high_k);
+  CHECK(a.standard_pressure_pa == b.standard_pressure_pa);
+  CHECK(a.thresholds.max_cp_relative == b.thresholds.max_cp_relative);
+  CHECK(a.thresholds.max_h_over_rt == b.thresholds.max_h_over_rt);
+  CHECK(a.thresholds.max_s_over_r == b.thresholds.max_s_over_r);
+  REQUIRE(a.diatomic_states.size() == b.diatomic_states.size());
+  for (std::size_t i = 0; i < a.diatomic_states.size(); ++i) {
+    const DiatomicState& x = a.diatomic_states[i];
+    const DiatomicState& y = b.diatomic_states[i];
+    CHECK(x.energy_cm1 == y.energy_cm1);
+    CHECK(x.degeneracy == y.degeneracy);
+    CHECK(x.constants.we_cm1 == y.constants.we_cm1);
+    CHECK(x.constants.wexe_cm1 == y.constants.wexe_cm1);
+    CHECK(x.constants.weye_cm1 == y.constants.weye_cm1);
+    CHECK(x.constants.be_cm1 == y.constants.be_cm1);
+    CHECK(x.constants.alphae_cm1 == y.constants.alphae_cm1);
+    CHECK(x.constants.gammae_cm1 == y.constants.gammae_cm1);
+    CHECK(x.constants.de_cm1 == y.constants.de_cm1);
+    CHECK(x.constants.dissociation_cm1 == y.constants.dissociation_cm1);
+  }
+  REQUIRE(a.nuclear_spin.has_value() == b.nuclear_spin.has_value());
+  if (a.nuclear_spin) {
+    CHECK(a.nuclear_spin->even_weight == b.nuclear_spin->even_weight);
+    CHECK(a.nuclear_spin->odd_weight == b.nuclear_spin->odd_weight);
+    CHECK(a.nuclear_spin->mixture == b.nuclear_spin->mixture);
+  }
+  REQUIRE(a.torsions.size() == b.torsions.size());
+  for (std::size_t i = 0; i < a.torsions.size(); ++i) {
+    CHECK(a.torsions[i].replaces_cm1 == b.torsions[i].replaces_cm1);
+    CHECK(a.torsions[i].rotational_constant_cm1 == b.torsions[i].rotational_constant_cm1);
+    CHECK(a.torsions[i].symmetry == b.torsions[i].symmetry);
+    CHECK(a.torsions[i].fourier_j_per_mol == b.torsions[i].fourier_j_per_mol);
+  }
+  REQUIRE(a.geometry.size() == b.geometry.size());
+  for (std::size_t i = 0; i < a.geometry.size(); ++i) {
+    CHECK(a.geometry[i].element == b.geometry[i].element);
+    CHECK(a.geometry[i].x_angstrom == b.geometry[i].x_angstrom);
+    CHECK(a.geometry[i].y_angstrom == b.geometry[i].y_angstrom);
+    CHECK(a.geometry[i].z_angstrom == b.geometry[i].z_angstrom);
+  }
+  CHECK(a.location.file == b.location.file);
+  CHECK(a.location.line == b.location.line);
+  CHECK(a.location.column == b.location.column);
+  CHECK(a.input_digest == b.input_digest);
+}
+
+void CheckSameSpeciesLists(const std::vector<Species>& a, const std::vector<Species>& b) {
+  REQUIRE(a.size() == b.size());
+  for (std::size_t i = 0; i < a.size(); ++i) CheckSameSpecies(a[i], b[i]);
+}
+
+// A text read as one document and read with the item-by-item split allowed (on 2 threads).
+struct TwoReadings {
+  std::vector<Species> whole;
+  std::vector<Species> split;
+  bool split_used = false;
+};
+
+TwoReadings ReadBothWays(const std::string& text, const std::string& file_name) {
+  TwoReadings readings;
+  bool whole_split_used = true;
+  readings.whole = detail::ReadSpeciesTextForTesting(text, file_name, false, 1, &whole_split_used);
+  CHECK_FALSE(whole_split_used);
+  readings.split =
+      detail::ReadSpeciesTextForTesting(text, file_name, true, 2, &readings.split_used);
+  return readings;
+}
+
+// The Error text of reading `text` either way, and whether the split was used.
+std::string ErrorReadingAs(const std::string& text, bool allow_split, bool* split_used) {
+  try {
+    detail::ReadSpeciesTextForTesting(text, "f.yaml", allow_split, 2, split_used);
+  } catch (const Error& error) {
+    return error.what();
+  }
+  return "";
+}
+
+std::string ReadWholeFile(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  REQUIRE(in);
+  return std::string(std::istreambuf_iterator<char>(in), std::istreambuf_iterator<char>());
+}
+
+TEST_CASE("reading species item by item gives exactly the whole-document species", "[species]") {
+  const std::string source_dir = SEVENFOLD_SOURCE_DIR;
+  for (const char* file : {"species/carbon-impurities.yaml",
+                           "species/cryogenic-and-quantum.yaml",
+                           "species/h2-o2-core.yaml",
+                           "species/nitrogen-chemistry.yaml",
+                           "tests/data/reference-species.yaml"}) {
+    INFO(file);
+    const TwoReadings readings = ReadBothWays(ReadWholeFile(source_dir + "/" + file), file);
+    CHECK(readings.split_used);
+    CheckSameSpeciesLists(readings.whole, readings.split);
+  }
+
+  TempDir dir;
+  const std::string generated = dir.Path("generated.yaml");
+  REQUIRE(std::system(("/usr/bin/python3 " + source_dir + "/scripts/generate-species.py 300 " +
+                       generated + " > /dev/null")
+                          .c_str()) == 0);
+  const std::string text = ReadWholeFile(generated);
+  const TwoReadings readings = ReadBothWays(text, generated);
+  CHECK(readings.split_used);
+  REQUIRE(readings.whole.size() == 300);
+  CheckSameSpeciesLists(readings.whole, readings.split);
+  // The thread count changes nothing, also through the file interface.
+  bool split_used = false;
+  CheckSameSpeciesLists(readings.split,
+                        detail::ReadSpeciesTextForTesting(text, generated, true, 1, &split_used));
+  CHECK(split_used);
+  CheckSameSpeciesLists(readings.split, ReadSpeciesFiles({generated}, 0));
+}
+
+TEST_CASE("tricky but valid layouts read item by item as in the whole document, or fall back",
+          "[species]") {
+  const std::string co2 = Join(Without(Co2Lines(), 1));
+  const std::string water = Join(Without(WaterLines(), 1));
+  struct Layout {
+    const char* what;
+    std::string text;
+    bool split;  // whether the item-by-item reading applies
+  };
+  const std::vector<Layout> layouts = {
+      {"comments between items, at column 0 and deeper",
+       "species:  # the list\n# atoms first\n" + co2 + "\n  # ---- next\n# column 0\n" + water +
+           "# end\n",
+       true},
+      {"flow-style items, one over two lines",
+       "species:\n  - {name: CO2, composition: {C: 1, O: 2}, formation-enthalpy: -393.51,\n"
+       "     shape: linear, symmetry-number: 2, rotational-constants: [0.39021],\n"
+       "     vibrations: [1333.0, 667.4, 667.4, 2349.0]}\n"
+       "  - {name: Ar, composition: {Ar: 1}, formation-enthalpy: 0, shape: atom}\n",
+       true},
+      {"nested block lists and a flow list over several lines",
+       "species:\n  - name: H2O\n    composition:\n      H: 2\n      O: 1\n"
+       "    formation-enthalpy: -241.826\n    shape: nonlinear\n    symmetry-number: 2\n"
+       "    rotational-constants:\n      - 14.5216\n      - 27.8806\n      - 9.2778\n"
+       "    vibrations: [3657,\n                 1595, 3756]\n"
+       "    electronic-levels:\n      - [0, 1]\n      -\n        - 60000\n        - 3\n" +
+           co2,
+       true},
+      {"defaults after species", "species:\n" + co2 + "defaults:\n  pressure: 1 atm\n", true},
+      {"CRLF line endings",
+       "defaults:\r\n  pressure: 1 atm\r\nspecies:\r\n  - name: CO2\r\n"
+       "    composition: {C: 1, O: 2}\r\n    formation-enthalpy: -393.51 kJ/mol\r\n"
+       "    shape: linear\r\n    symmetry-number: 2\r\n    rotational-constants: [0.39021]\r\n"
+       "    vibrations: [1333.0, 667.4, 667.4, 2349.0]\r\n",
+       true},
+      {"a document start marker", "--- # species\nspecies:\n" + co2 + water, true},
+      {"items at the key's indentation",
+       "species:\n- name: Ar\n  composition: {Ar: 1}\n"
+       "  formation-enthalpy: 0\n  shape: atom\n- name: He\n  composition: {He: 1}\n"
+       "  formation-enthalpy: 0\n  shape: atom\ndefaults: {pressure: 1 bar}\n",
+       true},
+      {"an item starting on the line after its dash",
+       "species:\n  -\n    name: Ar\n    composition: {Ar: 1}\n    formation-enthalpy: 0\n"
+       "    shape: atom\n" +
+           co2,
+       true},
+      {"quoted scalars, one holding '#'",
+       "species:\n  - name: \"Ar#1\"\n    composition: {'Ar': 1}\n    formation-enthalpy: '0'\n"
+       "    shape: \"atom\"  # quoted\n" +
+           co2,
+       true},
+      {"an anchor and an alias",
+       "species:\n  - name: Ar\n    composition: &single {Ar: 1}\n    formation-enthalpy: 0\n"
+       "    shape: atom\n  - name: Ar2\n    composition: *single\n    formation-enthalpy: 1\n"
+       "    shape: atom\n",
+       false},
+      {"a tab before a comment", "species:\n" + co2 + "    charge: 0\t# neutral\n", false},
+      {"a flow list continued at the items' indentation",
+       "species:\n  - name: CO2\n    composition: {C: 1, O: 2}\n"
+       "    formation-enthalpy: -393.51 kJ/mol\n    shape: linear\n    symmetry-number: 2\n"
+       "    rotational-constants: [0.39021]\n    vibrations: [1333.0, 667.4,\n"
+       "  667.4, 2349.0]\n" +
+           water,
+       false},
+      {"a document end marker", "species:\n" + co2 + "...\n", false},
+  };
+  for (const Layout& layout : layouts) {
+    INFO(layout.what);
+    const TwoReadings readings = ReadBothWays(layout.text, "f.yaml");
+    CHECK(readings.split_used == layout.split);
+    CHECK_FALSE(readings.whole.empty());
+    CheckSameSpeciesLists(readings.whole, readings.split);
+  }
+
+  // Line endings and the place of `defaults` are layout: the species and their digests stay.
+  const std::string lf = "defaults:\n  pressure: 1 atm\nspecies:\n" + co2;
+  std::string crlf;
+  for (const char c : lf) crlf += c == '\n' ? std::string("\r\n") : std::string(1, c);
+  CheckSameSpeciesLists(ReadSpeciesText(lf, "f.yaml"), ReadSpeciesText(crlf, "f.yaml"));
+  const std::string after = "species:\n" + co2 + "defaults:\n  pressure: 1 atm\n";
+  CHECK(ReadSpeciesText(after, "f.yaml").at(0).input_digest ==
+        ReadSpeciesText(lf, "f.yaml").at(0).input_digest);
+}
+
+TEST_CASE("bad input reads with the split allowed report exactly the whole-document errors",
+          "[species]") {
+  const std::string co2 = Join(Without(Co2Lines(), 1));
+  const std::string water = Join(Without(WaterLines(), 1));
+  struct Case {
+    const char* what;
+    std::string text;
+    bool split;  // whether the split reading gives the result (duplicates are checked after it)
+  };
+  const std::vector<Case> cases = {
+      {"a bad value in the second item",
+       "species:\n" + co2 + Join(With(Without(WaterLines(), 1), 7, "    vibrations: [3657, 1595]")),
+       false},
+      {"a YAML syntax error inside an item",
+       "species:\n" + co2 + "  - name: [H2O\n    shape: nonlinear\n",
+       false},
+      {"a duplicate name in two items", "species:\n" + co2 + co2, true},
+      {"an unknown top-level key after the items",
+       "species:\n" + co2 + water + "specie: []\n",
+       false},
+      {"bad defaults", "defaults:\n  pressure: 2 bar\nspecies:\n" + co2, false},
+      {"an item with an unknown key", "species:\n" + co2 + water + "    colour: blue\n", false},
+  };
+  for (const Case& one : cases) {
+    INFO(one.what);
+    bool whole_split_used = true;
+    bool split_used = !one.split;
+    const std::string whole = ErrorReadingAs(one.text, false, &whole_split_used);
+    CHECK_FALSE(whole.empty());
+    CHECK(ErrorReadingAs(one.text, true, &split_used) == whole);
+    CHECK_FALSE(whole_split_used);
+    CHECK(split_used == one.split);
+  }
+}
+
+TEST_CASE("the input digest ignores flow or block style and quoting but not content", "[species]") {
+  const std::string digest = ReadSpeciesText(Join(Co2Lines()), "f.yaml").at(0).input_digest;
+  const std::string block_style =
+      "species:\n  - name: \"CO2\"\n    composition:\n      C: 1\n      O: '2'\n"
+      "    formation-enthalpy: -393.51 kJ/mol\n    shape: linear\n    symmetry-number: 2\n"
+      "    rotational-constants:\n      - 0.39021\n"
+      "    vibrations:\n      - 1333.0\n      - 667.4\n      - 667.4\n      - 2349.0\n";
+  CHECK(ReadSpeciesText(block_style, "f.yaml").at(0).input_digest == digest);
+  std::string changed = block_style;
+  changed.replace(changed.find("2349.0"), 6, "2349.1");
+  CHECK(ReadSpeciesText(changed, "f.yaml").at(0).input_digest != digest);
+  // The same number written differently is different text, and so different content.
+  changed = block_style;
+  changed.replace(changed.find("2349.0"), 6, "2349");
+  CHECK(ReadSpeciesText(changed, "f.yaml").at(0).input_digest != digest);
+
+  const std::string flow_defaults =
+      "defaults: {temperatures: {low: 300, high: 5000}, pressure: 1 bar}\n" + Join(Co2Lines());
+  const std::string block_defaults =
+      "defaults:\n  temperatures:\n    low: 300\n    high: 5000  # K\n  pressure: '1 bar'\n" +
+      Join(Co2Lines());
+  const std::string with_defaults = ReadSpeciesText(flow_defaults, "f.yaml").at(0).input_digest;
+  CHECK(with_defaults != digest);
+  CHECK(ReadSpeciesText(block_defaults, "f.yaml").at(0).input_digest == with_defaults);
+  std::string other_defaults = block_defaults;
+  other_defaults.replace(other_defaults.find("5000"), 4, "5500");
+  CHECK(ReadSpeciesText(other_defaults, "f.yaml").at(0).input_digest != with_defaults);
 }
 
 }  // namespace sevenfold

@@ -7,6 +7,7 @@
 #include <yaml-cpp/yaml.h>
 
 #include <algorithm>
+#include <atomic>
 #include <cerrno>
 #include <cmath>
 #include <cstdio>
@@ -20,6 +21,7 @@
 #include "core/constants.h"
 #include "core/digest.h"
 #include "core/elements.h"
+#include "core/parallel.h"
 #include "core/units.h"
 #include "species/geometry.h"
 
@@ -344,6 +346,196 @@ int SecondDocumentLine(const std::string& text) {
   return 0;
 }
 
+// Appends `text` as its byte count, a colon and the bytes, so no two sequences of texts collide.
+void AppendLengthPrefixed(const std::string& text, std::string* out) {
+  *out += std::to_string(text.size());
+  *out += ':';
+  *out += text;
+}
+
+// Appends a canonical form of `node` for the input digest: a type letter, then a scalar's
+// length-prefixed text, or a collection's item count followed by its items (maps: key, value, in
+// file order). Explicit tags enter it; comments, indentation, quoting and flow or block style do
+// not, so only content changes the digest. Aliases are written out in full; the node must have
+// passed validation, whose schema bounds its depth (no cycles reach here).
+void AppendCanonical(const YAML::Node& node, std::string* out) {
+  const std::string& tag = node.Tag();
+  if (!tag.empty() && tag != "?" && tag != "!") {
+    *out += '!';
+    AppendLengthPrefixed(tag, out);
+  }
+  switch (node.Type()) {
+    case YAML::NodeType::Undefined:
+      *out += 'u';
+      return;
+    case YAML::NodeType::Null:
+      *out += '~';
+      return;
+    case YAML::NodeType::Scalar:
+      *out += 's';
+      AppendLengthPrefixed(node.Scalar(), out);
+      return;
+    case YAML::NodeType::Sequence:
+      *out += 'l' + std::to_string(node.size()) + ':';
+      for (const YAML::Node& item : node) AppendCanonical(item, out);
+      return;
+    case YAML::NodeType::Map:
+      *out += 'm' + std::to_string(node.size()) + ':';
+      for (auto it = node.begin(); it != node.end(); ++it) {
+        AppendCanonical(it->first, out);
+        AppendCanonical(it->second, out);
+      }
+      return;
+  }
+}
+
+// The part of every species' digest that comes from the file's `defaults` node.
+std::string DefaultsCanonical(const YAML::Node& defaults) {
+  std::string canonical = "\ndefaults\n";
+  AppendCanonical(defaults, &canonical);
+  return canonical;
+}
+
+// The items of a species file's top-level `species:` block sequence, found by a cheap scan of the
+// text, and the rest of the file (the skeleton: top-level keys, `defaults`, comments). Parsing each
+// item on its own holds one small node tree at a time instead of the whole document's, and lets
+// items be parsed in parallel.
+struct SpeciesItemsSplit {
+  struct Item {
+    std::size_t begin = 0;  // byte range: the item's "- " line up to the next item's
+    std::size_t end = 0;
+    int first_line = 0;  // 0-based line of `begin` in the file
+  };
+  std::vector<Item> items;
+  std::string skeleton;
+};
+
+// True when text[pos, end) is only spaces, optionally followed by a comment after a space.
+bool OnlyComment(const std::string& text, std::size_t pos, std::size_t end) {
+  const std::size_t start = pos;
+  while (pos < end && text[pos] == ' ') ++pos;
+  return pos == end || (text[pos] == '#' && pos > start);
+}
+
+// Scans the content text[begin, end) of one line, carrying the flow-collection depth across lines.
+// False where the split cannot be sure of YAML's reading: a tab or carriage return, a quoted
+// scalar not closed on its line, a bracket that may be part of a plain scalar, or an indicator
+// with a meaning at the start of a token (anchor, alias, tag, block scalar, complex key, directive,
+// reserved). Brackets and indicators inside quotes or comments do not count.
+bool ScanLineForSplit(const std::string& text, std::size_t begin, std::size_t end, int* depth) {
+  char previous = ' ';
+  for (std::size_t i = begin; i < end; ++i) {
+    const char c = text[i];
+    // YAML starts a token (a node, a quoted scalar, a flow collection) only after these.
+    const bool token_start =
+        previous == ' ' || previous == '[' || previous == '{' || previous == ',' || previous == ':';
+    if (c == '\t' || c == '\r') return false;
+    if (c == '#' && previous == ' ') return true;  // a comment runs to the end of the line
+    if (token_start && (c == '"' || c == '\'')) {
+      std::size_t j = i + 1;
+      for (; j < end; ++j) {
+        if (text[j] == '\t' || text[j] == '\r') return false;
+        if (c == '"' && text[j] == '\\') {
+          ++j;  // an escaped character, possibly a quote
+        } else if (text[j] == c) {
+          if (c == '\'' && j + 1 < end && text[j + 1] == '\'') {
+            ++j;  // '' is a quote inside a single-quoted scalar
+          } else {
+            break;
+          }
+        }
+      }
+      if (j >= end) return false;
+      i = j;
+      previous = c;
+      continue;
+    }
+    if (c == '[' || c == '{') {
+      if (*depth == 0 && !token_start) return false;
+      ++*depth;
+    } else if (c == ']' || c == '}') {
+      if (*depth == 0) return false;
+      --*depth;
+    } else if (token_start && (c == '&' || c == '*' || c == '!' || c == '|' || c == '>' ||
+                               c == '?' || c == '@' || c == '`' || c == '%')) {
+      return false;
+    }
+    previous = c;
+  }
+  return true;
+}
+
+// The split of `text`, or nullopt unless the scan is sure of it. Sure means: a block-style
+// top-level map whose column-0 lines are only `defaults:`, `species:` (nothing after the colon),
+// a leading "---" and comments; the species value is a block sequence whose items start with "- "
+// at one indentation, every other line of the block indented deeper (or a comment); no flow
+// collection or quoted scalar spans an item boundary or a top-level key (ScanLineForSplit). A
+// wrong guess can only cut a multi-line construct, which makes the cut item fail to parse; the
+// caller then reads the whole document, so errors are reported exactly as before.
+std::optional<SpeciesItemsSplit> SplitSpeciesItems(const std::string& text) {
+  enum class Phase { kTop, kFirstItem, kItems };
+  Phase phase = Phase::kTop;
+  SpeciesItemsSplit split;
+  bool seen_content = false, seen_species = false, in_top_key = false;
+  int depth = 0;
+  std::size_t item_indent = 0, items_end = text.size();
+  int line = -1;
+  for (std::size_t next = 0; next < text.size();) {
+    ++line;
+    const std::size_t begin = next;
+    std::size_t end = text.find('\n', begin);
+    next = end == std::string::npos ? text.size() : end + 1;
+    if (end == std::string::npos) end = text.size();
+    if (end > begin && text[end - 1] == '\r') --end;
+    std::size_t first = begin;
+    while (first < end && text[first] == ' ') ++first;
+    if (first == end || text[first] == '#') continue;  // blank or comment: no effect on the split
+    const std::size_t indent = first - begin;
+    const bool item_start = text[first] == '-' && (first + 1 == end || text[first + 1] == ' ');
+    const int depth_before = depth;
+    if (!ScanLineForSplit(text, first, end, &depth)) return std::nullopt;
+    if (phase != Phase::kTop) {
+      if (item_start && depth_before == 0 &&
+          (phase == Phase::kFirstItem || indent == item_indent)) {
+        if (phase == Phase::kFirstItem) item_indent = indent;
+        phase = Phase::kItems;
+        split.items.push_back(SpeciesItemsSplit::Item{begin, 0, line});
+        continue;
+      }
+      if (phase == Phase::kItems && indent > item_indent) continue;  // inside the current item
+      if (phase == Phase::kFirstItem || indent > 0 || depth_before != 0) return std::nullopt;
+      items_end = begin;  // a top-level key closes the species block
+      phase = Phase::kTop;
+    }
+    if (indent > 0) {
+      if (!in_top_key) return std::nullopt;
+      continue;  // inside the value of `defaults`
+    }
+    if (depth_before != 0) return std::nullopt;
+    if (text.compare(first, 3, "---") == 0 && (first + 3 == end || text[first + 3] == ' ')) {
+      if (seen_content || !OnlyComment(text, first + 3, end)) return std::nullopt;
+      continue;
+    }
+    seen_content = true;
+    if (text.compare(first, 8, "species:") == 0) {
+      if (seen_species || !OnlyComment(text, first + 8, end)) return std::nullopt;
+      seen_species = in_top_key = true;
+      phase = Phase::kFirstItem;
+    } else if (text.compare(first, 9, "defaults:") == 0 &&
+               (first + 9 == end || text[first + 9] == ' ')) {
+      in_top_key = true;
+    } else {
+      return std::nullopt;
+    }
+  }
+  if (phase == Phase::kFirstItem || depth != 0 || split.items.empty()) return std::nullopt;
+  for (std::size_t i = 0; i < split.items.size(); ++i) {
+    split.items[i].end = i + 1 < split.items.size() ? split.items[i + 1].begin : items_end;
+  }
+  split.skeleton = text.substr(0, split.items.front().begin) + text.substr(items_end);
+  return split;
+}
+
 class FileParser {
  public:
   FileParser(const std::string& text,
@@ -352,12 +544,18 @@ class FileParser {
              Problems* problems)
       : text_(text), file_name_(file_name), file_index_(file_index), problems_(problems) {}
 
-  std::vector<Species> Parse(std::vector<NameRecord>* names);
+  // Reads the file, by species items when SplitSpeciesItems is sure of them and `allow_split`
+  // (items parsed on up to num_jobs threads, 0: hardware threads), else as one document.
+  // Returns true when the split was used.
+  bool Parse(std::vector<NameRecord>* names,
+             bool allow_split,
+             int num_jobs,
+             std::vector<Species>* species);
 
  private:
   SourceLocation Where(const YAML::Mark& mark) const {
     if (mark.is_null()) return SourceLocation{file_name_, 0, 0};
-    return SourceLocation{file_name_, mark.line + 1, mark.column + 1};
+    return SourceLocation{file_name_, line_offset_ + mark.line + 1, mark.column + 1};
   }
   SourceLocation Where(const YAML::Node& node) const { return Where(node.Mark()); }
 
@@ -423,6 +621,11 @@ class FileParser {
                                      int index,
                                      const Defaults& defaults,
                                      std::vector<NameRecord>* names);
+  // The species of a split file, or nullopt (nothing recorded) on any doubt or problem at all.
+  std::optional<std::vector<Species>> ParseSplit(const SpeciesItemsSplit& split,
+                                                 int num_jobs,
+                                                 std::vector<NameRecord>* names);
+  std::vector<Species> ParseWholeDocument(std::vector<NameRecord>* names);
   bool ReadComposition(const YAML::Node& value, Species* species);
   void ReadRotation(const YAML::Node& node,
                     const Entries& entries,
@@ -454,7 +657,8 @@ class FileParser {
   int file_index_;
   Problems* problems_;
   std::string context_;  // "defaults", "species 'CO2'", "species #3"; empty at the top level
-  YAML::Node defaults_node_;
+  int line_offset_ = 0;  // lines of the file before text_, when text_ is one species item
+  std::string defaults_canonical_;  // DefaultsCanonical of the file's defaults, "" without any
 };
 
 std::optional<Entries> FileParser::ReadEntries(const YAML::Node& map,
@@ -1653,14 +1857,17 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& node,
   }
 
   if (problems_->size() != before) return std::nullopt;
-  // Load-then-dump drops comments and normalises layout, so only content changes the digest.
-  std::string canonical = "sevenfold species v1\n" + YAML::Dump(node) + "\n";
-  if (defaults_node_.IsDefined()) canonical += "defaults\n" + YAML::Dump(defaults_node_) + "\n";
+  std::string canonical = "sevenfold species v2\n";
+  AppendCanonical(node, &canonical);
+  canonical += defaults_canonical_;
   species.input_digest = Sha256Hex(canonical);
   return species;
 }
 
-std::vector<Species> FileParser::Parse(std::vector<NameRecord>* names) {
+bool FileParser::Parse(std::vector<NameRecord>* names,
+                       bool allow_split,
+                       int num_jobs,
+                       std::vector<Species>* species) {
   if (const std::optional<BadByte> bad = FindBadByte(text_)) {
     const SourceLocation where{file_name_, bad->line, bad->column};
     problems_->Add(file_index_,
@@ -1671,7 +1878,7 @@ std::vector<Species> FileParser::Parse(std::vector<NameRecord>* names) {
                                    static_cast<unsigned>(bad->byte),
                                    bad->control ? "a control character YAML does not allow"
                                                 : "which is not valid UTF-8"));
-    return {};
+    return false;
   }
   // yaml-cpp's Load silently keeps the first document only; its LoadAll loops forever on some
   // inputs that Load reads (found by fuzzing, docs/robustness.md). So a second document is
@@ -1683,8 +1890,82 @@ std::vector<Species> FileParser::Parse(std::vector<NameRecord>* names) {
                    1,
                    where.ToString() +
                        ": a second YAML document; expected one document per species file");
-    return {};
+    return false;
   }
+  if (allow_split) {
+    if (const std::optional<SpeciesItemsSplit> split = SplitSpeciesItems(text_)) {
+      if (std::optional<std::vector<Species>> read = ParseSplit(*split, num_jobs, names)) {
+        *species = std::move(*read);
+        return true;
+      }
+    }
+  }
+  *species = ParseWholeDocument(names);
+  return false;
+}
+
+std::optional<std::vector<Species>> FileParser::ParseSplit(const SpeciesItemsSplit& split,
+                                                           int num_jobs,
+                                                           std::vector<NameRecord>* names) {
+  // Problems are only counted here: any at all sends the file to ParseWholeDocument, which
+  // reports them exactly as it always has.
+  Problems problems;
+  FileParser top(split.skeleton, file_name_, file_index_, &problems);
+  Defaults defaults;
+  try {
+    const YAML::Node root = YAML::Load(split.skeleton);
+    const std::optional<Entries> entries = top.ReadEntries(root, "", kTopKeys);
+    if (!entries) return std::nullopt;
+    const Entry* list = entries->Find("species");
+    if (list == nullptr || !list->value.IsNull()) return std::nullopt;
+    if (const Entry* entry = entries->Find("defaults")) {
+      if (const auto read = top.ReadDefaults(entry->value)) defaults = *read;
+      if (problems.size() > 0) return std::nullopt;
+      top.defaults_canonical_ = DefaultsCanonical(entry->value);
+    }
+  } catch (...) {
+    return std::nullopt;
+  }
+  if (problems.size() > 0) return std::nullopt;
+
+  struct ItemResult {
+    std::optional<Species> species;
+    std::vector<NameRecord> names;
+  };
+  const int num_items = static_cast<int>(split.items.size());
+  std::vector<ItemResult> results(split.items.size());
+  std::atomic<bool> failed{false};
+  ParallelFor(num_items, num_jobs, [&](int i) {
+    if (failed.load()) return;
+    const SpeciesItemsSplit::Item& item = split.items[static_cast<std::size_t>(i)];
+    ItemResult& result = results[static_cast<std::size_t>(i)];
+    try {
+      const std::string text = text_.substr(item.begin, item.end - item.begin);
+      const YAML::Node root = YAML::Load(text);
+      Problems item_problems;
+      FileParser parser(text, file_name_, file_index_, &item_problems);
+      parser.line_offset_ = item.first_line;
+      parser.defaults_canonical_ = top.defaults_canonical_;
+      // The item's text alone is a block sequence of exactly this one item.
+      if (root.IsSequence() && root.size() == 1) {
+        result.species = parser.ReadSpecies(root[0], i, defaults, &result.names);
+      }
+      if (!result.species || item_problems.size() > 0) failed = true;
+    } catch (...) {
+      failed = true;
+    }
+  });
+  if (failed) return std::nullopt;
+  std::vector<Species> species;
+  species.reserve(results.size());
+  for (ItemResult& result : results) {
+    species.push_back(std::move(*result.species));
+    for (NameRecord& record : result.names) names->push_back(std::move(record));
+  }
+  return species;
+}
+
+std::vector<Species> FileParser::ParseWholeDocument(std::vector<NameRecord>* names) {
   YAML::Node root;
   try {
     root = YAML::Load(text_);
@@ -1710,8 +1991,10 @@ std::vector<Species> FileParser::Parse(std::vector<NameRecord>* names) {
     if (!top) return {};
     Defaults defaults;
     if (const Entry* entry = top->Find("defaults")) {
-      defaults_node_ = entry->value;
+      const std::size_t before = problems_->size();
       if (const auto read = ReadDefaults(entry->value)) defaults = *read;
+      // Only validated defaults are walked: their schema bounds the walk (an alias bomb is not).
+      if (problems_->size() == before) defaults_canonical_ = DefaultsCanonical(entry->value);
     }
     const Entry* list = top->Find("species");
     if (!list) {
@@ -1805,7 +2088,36 @@ std::optional<std::string> ReadFileText(const std::string& path,
 
 }  // namespace
 
-std::vector<Species> ReadSpeciesText(const std::string& text, const std::string& file_name) {
+std::vector<Species> ReadSpeciesText(const std::string& text,
+                                     const std::string& file_name,
+                                     int num_jobs) {
+  return detail::ReadSpeciesTextForTesting(text, file_name, true, num_jobs, nullptr);
+}
+
+std::vector<Species> ReadSpeciesFiles(const std::vector<std::string>& paths, int num_jobs) {
+  Problems problems;
+  std::vector<NameRecord> names;
+  std::vector<Species> all_species;
+  for (std::size_t i = 0; i < paths.size(); ++i) {
+    const int file_index = static_cast<int>(i);
+    const std::optional<std::string> text = ReadFileText(paths[i], file_index, &problems);
+    if (!text) continue;
+    std::vector<Species> species;
+    FileParser(*text, paths[i], file_index, &problems).Parse(&names, true, num_jobs, &species);
+    for (Species& one : species) all_species.push_back(std::move(one));
+  }
+  CheckDuplicateNames(names, &problems);
+  problems.ThrowIfAny();
+  return all_species;
+}
+
+namespace detail {
+
+std::vector<Species> ReadSpeciesTextForTesting(const std::string& text,
+                                               const std::string& file_name,
+                                               bool allow_split,
+                                               int num_jobs,
+                                               bool* split_used) {
   Problems problems;
   std::vector<NameRecord> names;
   if (text.size() > kMaxSpeciesFileBytes) {
@@ -1817,26 +2129,15 @@ std::vector<Species> ReadSpeciesText(const std::string& text, const std::string&
                      "expected at most 16 MiB");
     problems.ThrowIfAny();
   }
-  std::vector<Species> species = FileParser(text, file_name, 0, &problems).Parse(&names);
+  std::vector<Species> species;
+  const bool split =
+      FileParser(text, file_name, 0, &problems).Parse(&names, allow_split, num_jobs, &species);
+  if (split_used != nullptr) *split_used = split;
   CheckDuplicateNames(names, &problems);
   problems.ThrowIfAny();
   return species;
 }
 
-std::vector<Species> ReadSpeciesFiles(const std::vector<std::string>& paths) {
-  Problems problems;
-  std::vector<NameRecord> names;
-  std::vector<Species> all_species;
-  for (std::size_t i = 0; i < paths.size(); ++i) {
-    const int file_index = static_cast<int>(i);
-    const std::optional<std::string> text = ReadFileText(paths[i], file_index, &problems);
-    if (!text) continue;
-    std::vector<Species> species = FileParser(*text, paths[i], file_index, &problems).Parse(&names);
-    for (Species& one : species) all_species.push_back(std::move(one));
-  }
-  CheckDuplicateNames(names, &problems);
-  problems.ThrowIfAny();
-  return all_species;
-}
+}  // namespace detail
 
 }  // namespace sevenfold
