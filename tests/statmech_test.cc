@@ -170,13 +170,60 @@ TEST_CASE("explicit linear-rotor sum converges to the classical series", "[statm
   // McQuarrie 2000, problem 6-..., from memory). The next term is of order (theta/T)^4,
   // so at T = 20 theta the two agree to about 1e-6 and at T = 25 theta better still.
   const double theta = 2.0;
-  const RotorContribution rotor = RotorContribution::Linear(theta / kWavenumberToKelvin, 1.0);
+  RotorOptions explicit_to_30;  // the explicit sum over the whole range checked here
+  explicit_to_30.switch_factor = 30.0;
+  const RotorContribution rotor =
+      RotorContribution::Linear(theta / kWavenumberToKelvin, 1.0, 0.0, explicit_to_30);
   for (double ratio : {20.0, 25.0}) {
     const double t = ratio * theta;
     REQUIRE(t < rotor.switch_temperature_k());  // this is the explicit sum
     const double x = theta / t;
     const double series = (1 / x) * (1 + x / 3 + x * x / 15 + 4 * x * x * x / 315);
     CHECK(RelativeDifference(std::exp(rotor.At(t).ln_q), series) < std::pow(x, 4));
+  }
+}
+
+TEST_CASE("matched rotor tail agrees with the explicit sum above the hand-over", "[statmech]") {
+  // The default rotor hands over at 12 theta_max to ln q_cl + c1/T + ... + c6/T^6 with c2..c6
+  // matched; a rotor with the explicit sum up to 120 theta_max is the reference. Stated
+  // tolerance: 1e-11 in ln q, <E>/T and Var/T^2 (= Cv/R), relative to the classical values (the
+  // first unmatched term, (theta/T)^7 ~ 3e-8 times a small coefficient at the hand-over;
+  // measured values printed).
+  struct Case {
+    const char* name;
+    bool linear;
+    std::array<double, 3> abc_cm1;
+  };
+  const std::vector<Case> cases = {
+      {"linear (HCl-like)", true, {10.44, 0, 0}},
+      {"asymmetric (H2O-like)", false, {27.88, 14.51, 9.28}},
+      {"oblate symmetric (NH3-like)", false, {9.444, 9.444, 6.196}},
+      {"asymmetric A/C = 3 (large molecule)", false, {0.06, 0.025, 0.02}},
+      {"near-prolate A/C = 12", false, {1.2, 0.11, 0.1}},
+  };
+  RotorOptions wide;
+  wide.switch_factor = 120.0;
+  for (const Case& c : cases) {
+    INFO(c.name);
+    const RotorContribution tail =
+        c.linear ? RotorContribution::Linear(c.abc_cm1[0], 1.0)
+                 : RotorContribution::Nonlinear(c.abc_cm1, 1.0);
+    const RotorContribution reference =
+        c.linear ? RotorContribution::Linear(c.abc_cm1[0], 1.0, 0.0, wide)
+                 : RotorContribution::Nonlinear(c.abc_cm1, 1.0, wide);
+    const double ts = tail.switch_temperature_k();
+    double worst = 0.0;
+    for (double factor : {1.0001, 1.2, 1.5, 2.0, 3.0, 5.0, 9.0}) {
+      const double t = factor * ts;
+      REQUIRE(t < reference.switch_temperature_k());
+      const Moments a = tail.At(t), b = reference.At(t);
+      const double p = c.linear ? 1.0 : 1.5;  // classical <E>/T and Cv/R
+      worst = std::max({worst, std::abs(a.ln_q - b.ln_q) / std::abs(b.ln_q),
+                        std::abs(a.mean_energy_k - b.mean_energy_k) / (p * t),
+                        std::abs(a.energy_variance_k2 - b.energy_variance_k2) / (p * t * t)});
+    }
+    std::printf("matched tail vs explicit sum, %s: worst %.2e\n", c.name, worst);
+    CHECK(worst < 1e-11);
   }
 }
 
@@ -250,7 +297,10 @@ TEST_CASE("asymmetric-top quantum sum approaches the classical value at high tem
   // difference falls like theta/T (first semiclassical correction ~ 0.5 theta_A / 12 T).
   const double a = 27.88 * kWavenumberToKelvin, b = 14.51 * kWavenumberToKelvin,
                c = 9.28 * kWavenumberToKelvin;
-  const RotorContribution rotor = RotorContribution::Nonlinear({27.88, 14.51, 9.28}, 1.0);
+  RotorOptions explicit_to_30;  // the explicit sum over the whole range checked here
+  explicit_to_30.switch_factor = 30.0;
+  const RotorContribution rotor =
+      RotorContribution::Nonlinear({27.88, 14.51, 9.28}, 1.0, explicit_to_30);
   double previous = 1.0;
   for (double t : {50.0, 200.0, 800.0}) {
     REQUIRE(t < rotor.switch_temperature_k());
@@ -1106,12 +1156,14 @@ namespace {
 
 TEST_CASE("very elongated tops beyond the J cap match the explicit sum they replace",
           "[statmech]") {
-  // A near-prolate top with A/C = 300 (HNCO-like but more elongated): with the default J cap the
+  // A near-prolate top with A/C = 300 (HNCO-like but more elongated): with a J cap of 300 the
   // engine sums K exactly and J semiclassically; with a cap raised far enough the explicit
   // asymmetric-top sum applies. The two must agree to the order of the neglected terms,
   // ((B - C)/A)^2 ~ 1e-7 and (C/T)^2 < 1e-4 at 10 K (common practice: Euler-Maclaurin).
   const std::array<double, 3> abc = {30.0, 0.1001, 0.1};
-  const RotorContribution hybrid = RotorContribution::Nonlinear(abc, 1.0);
+  RotorOptions capped;  // a J cap that this top exceeds at the default hand-over
+  capped.max_j = 300;
+  const RotorContribution hybrid = RotorContribution::Nonlinear(abc, 1.0, capped);
   RotorOptions wide;
   wide.max_j = 2000;
   wide.switch_factor = 3.0;  // keeps the explicit ladder affordable; still exact below 3 A

@@ -41,6 +41,32 @@ Moments LevelSumMoments(const std::vector<Level>& levels, double t_k) {
   return moments;
 }
 
+Cumulants LevelSumCumulants(const std::vector<Level>& levels, double t_k) {
+  const double inverse_t = 1.0 / t_k;
+  double sum_weight = 0.0, sum_energy = 0.0;
+  for (const Level& level : levels) {
+    const double weight = level.degeneracy * std::exp(-level.energy_k * inverse_t);
+    sum_weight += weight;
+    sum_energy += weight * level.energy_k;
+  }
+  const double mean = sum_energy / sum_weight;
+  double m2 = 0.0, m3 = 0.0, m4 = 0.0;  // central moments times sum_weight
+  for (const Level& level : levels) {
+    const double weight = level.degeneracy * std::exp(-level.energy_k * inverse_t);
+    const double d = level.energy_k - mean, d2 = d * d;
+    m2 += weight * d2;
+    m3 += weight * d2 * d;
+    m4 += weight * d2 * d2;
+  }
+  m2 /= sum_weight;
+  m3 /= sum_weight;
+  m4 /= sum_weight;
+  Cumulants cumulants;
+  cumulants.ln_q = std::log(sum_weight);
+  cumulants.kappa = {0.0, mean, m2, m3, m4 - 3.0 * m2 * m2};
+  return cumulants;
+}
+
 Moments ShiftedLevelSumMoments(const std::vector<Level>& levels, double lowest_k, double t_k) {
   Moments moments = LevelSumMoments(levels, t_k);
   moments.ln_q -= lowest_k / t_k;

@@ -188,23 +188,40 @@ RotorContribution RotorContribution::FromLevels(std::vector<Level> levels,
 }
 
 void RotorContribution::MatchTail() {
+  // With y_n = c_n / T^n and the falling factorial n^(k) = n (n-1) ... (n-k+1), the series gives
+  //   ln q = ln q_cl + c1/T + sum y_n,   kappa_k = (k-1)! p T^k - [k = 1] c1 + (-1)^k T^k sum n^(k) y_n
+  // for the cumulants kappa_1 = <E>, kappa_2 = Var, ... (derivatives of ln q in 1/T). Matching
+  // ln q and kappa_1..4 of the level sum fixes y_2..y_6: a 5 x 5 linear system.
+  constexpr int kMatched = kTailTerms - 1;
   const double t = switch_t_k_;
-  const Moments sum = LevelSumMoments(levels_, t);
+  const Cumulants sum = LevelSumCumulants(levels_, t);
   const double p = classical_exponent_;
   const double c1 = tail_[1];
-  // Residuals of the level sum against ln q_cl + c1/T, in the dimensionless y_n = c_n / T^n.
-  Eigen::Vector3d rhs;
+  Eigen::Matrix<double, kMatched, 1> rhs;
+  Eigen::Matrix<double, kMatched, kMatched> matrix;
   rhs(0) = sum.ln_q - (ln_classical_prefactor_ + p * std::log(t) + c1 / t);
-  rhs(1) = -(sum.mean_energy_k - p * t + c1) / t;
-  rhs(2) = (sum.energy_variance_k2 - p * t * t) / (t * t);
-  Eigen::Matrix3d matrix;
-  matrix << 1, 1, 1,  //
-      2, 3, 4,        //
-      2, 6, 12;
-  const Eigen::Vector3d y = matrix.fullPivLu().solve(rhs);
-  tail_[2] = y(0) * t * t;
-  tail_[3] = y(1) * t * t * t;
-  tail_[4] = y(2) * t * t * t * t;
+  double factorial = 1.0, t_power = 1.0, sign = 1.0;  // (k-1)!, T^k, (-1)^k
+  for (int k = 1; k < kMatched; ++k) {
+    t_power *= t;
+    sign = -sign;
+    if (k > 1) factorial *= k - 1;
+    const double classical = factorial * p * t_power - (k == 1 ? c1 : 0.0);
+    rhs(k) = sign * (sum.kappa[static_cast<std::size_t>(k)] - classical) / t_power;
+  }
+  for (int k = 0; k < kMatched; ++k) {
+    for (int j = 0; j < kMatched; ++j) {
+      const int n = j + 2;
+      double falling = 1.0;
+      for (int i = 0; i < k; ++i) falling *= n - i;
+      matrix(k, j) = falling;
+    }
+  }
+  const Eigen::Matrix<double, kMatched, 1> y = matrix.fullPivLu().solve(rhs);
+  double t_n = t;
+  for (int j = 0; j < kMatched; ++j) {
+    t_n *= t;  // T^(j+2)
+    tail_[static_cast<std::size_t>(j + 2)] = y(j) * t_n;
+  }
 }
 
 Moments RotorContribution::SeriesAt(double t_k) const {
@@ -214,9 +231,9 @@ Moments RotorContribution::SeriesAt(double t_k) const {
   moments.mean_energy_k = p * t_k;
   moments.energy_variance_k2 = p * t_k * t_k;
   double t_power = 1.0;  // T^n, built up as n grows
-  for (int n = 1; n <= 4; ++n) {
+  for (int n = 1; n <= kTailTerms; ++n) {
     t_power *= t_k;
-    const double term = tail_[n] / t_power;  // c_n / T^n
+    const double term = tail_[static_cast<std::size_t>(n)] / t_power;  // c_n / T^n
     moments.ln_q += term;
     moments.mean_energy_k -= n * term * t_k;
     moments.energy_variance_k2 += n * (n - 1.0) * term * t_k * t_k;
