@@ -38,7 +38,7 @@ void SetupCheckCommand(CLI::App& app, int& exit_status) {
 
 int RunCheckCommand(const CheckCommandOptions& options) {
   // Read both inputs before the long part, so a malformed file fails fast.
-  const std::vector<Species> species = LoadSpecies(options.species_files, {});
+  const std::vector<Species> species = LoadSpecies(options.species_files, {}, options.num_jobs);
   const EntriesFile committed = ReadEntriesFile(options.entries_path);
   RegenerateOptions regenerate = MakeRegenerateOptions(options.mid, options.num_jobs);
   regenerate.continuous_second_derivative = options.continuous_second_derivative;

@@ -15,8 +15,8 @@
 namespace sevenfold::cli {
 
 std::vector<Species> LoadSpecies(const std::vector<std::string>& files,
-                                 const std::vector<std::string>& names) {
-  std::vector<Species> all = ReadSpeciesFiles(files);
+                                 const std::vector<std::string>& names, int num_jobs) {
+  std::vector<Species> all = ReadSpeciesFiles(files, num_jobs);
   if (names.empty()) return all;
   for (const std::string& name : names) {
     const bool found = std::any_of(all.begin(), all.end(),

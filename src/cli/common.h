@@ -13,10 +13,11 @@
 
 namespace sevenfold::cli {
 
-// Reads the species files and keeps those named in `names` (all when empty), in file order.
-// Throws Error for a name that no file defines.
+// Reads the species files (on num_jobs threads: 0 means the machine's hardware threads) and keeps
+// those named in `names` (all when empty), in file order. Throws Error for a name that no file
+// defines.
 std::vector<Species> LoadSpecies(const std::vector<std::string>& files,
-                                 const std::vector<std::string>& names);
+                                 const std::vector<std::string>& names, int num_jobs = 1);
 
 // Temperature selection shared by `table` and `eval`: --at, or --from/--to/--step, or nothing
 // (then the default grid of each species).
