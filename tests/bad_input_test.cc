@@ -21,6 +21,7 @@
 #include <catch2/catch.hpp>
 
 #include "entries/entries.h"
+#include "run_binary.h"
 
 namespace {
 
@@ -32,18 +33,8 @@ constexpr int kTimeoutSeconds = 20;
 // At least this many cases: the robustness issue asks for 60 or more.
 constexpr std::size_t kMinCorpusCases = 60;
 
-struct RunResult {
-  int exit_status = -1;  // -1 when killed by a signal
-  std::string out;
-  std::string err;
-};
-
-std::string ReadWhole(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  std::stringstream buffer;
-  buffer << in.rdbuf();
-  return buffer.str();
-}
+using sevenfold::testing::ReadWhole;
+using sevenfold::testing::RunResult;
 
 void WriteWhole(const std::string& path, const std::string& content) {
   std::ofstream out(path, std::ios::binary);
@@ -77,24 +68,10 @@ class TempDir {
   fs::path path_;
 };
 
-// Runs the binary from the source directory under `timeout`, after `prefix` (shell commands
-// such as "ulimit -f 4;"), and captures stdout and stderr.
+// Runs the binary under `timeout` (a hang shows as exit 124), after `prefix` (shell commands such
+// as "ulimit -f 4;").
 RunResult Run(const std::string& arguments, const std::string& prefix = "") {
-  static TempDir capture;
-  static int counter = 0;
-  const std::string stem = capture.File("run" + std::to_string(++counter));
-  const std::string command = "cd " + std::string(SEVENFOLD_SOURCE_DIR) + " && " + prefix +
-                              " exec timeout " + std::to_string(kTimeoutSeconds) + " " +
-                              SEVENFOLD_BINARY + " " + arguments + " >" + stem + ".out 2>" + stem +
-                              ".err </dev/null";
-  const int raw = std::system(("/bin/sh -c '" + command + "'").c_str());
-  RunResult result;
-  result.exit_status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
-  result.out = ReadWhole(stem + ".out");
-  result.err = ReadWhole(stem + ".err");
-  fs::remove(stem + ".out");
-  fs::remove(stem + ".err");
-  return result;
+  return sevenfold::testing::RunBinary(arguments, prefix, kTimeoutSeconds);
 }
 
 std::string ReplaceAll(std::string text, const std::string& from, const std::string& to) {

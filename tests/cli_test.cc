@@ -15,40 +15,14 @@
 
 #include <catch2/catch.hpp>
 
+#include "run_binary.h"
+
 namespace {
 
-struct RunResult {
-  int exit_status = -1;
-  std::string out;
-  std::string err;
-};
+using sevenfold::testing::ReadWhole;
+using sevenfold::testing::RunResult;
 
-std::string ReadWhole(const std::string& path) {
-  std::ifstream in(path);
-  std::stringstream buffer;
-  buffer << in.rdbuf();
-  return buffer.str();
-}
-
-// Runs the binary with `arguments` from the source directory; captures stdout and stderr in
-// files under the system temporary directory.
-RunResult Run(const std::string& arguments) {
-  static int counter = 0;
-  const std::filesystem::path stem = std::filesystem::temp_directory_path() /
-      ("sevenfold_cli_test_" + std::to_string(getpid()) + "_" + std::to_string(++counter));
-  const std::string out_path = stem.string() + ".out", err_path = stem.string() + ".err";
-  const std::string command = std::string("cd ") + SEVENFOLD_SOURCE_DIR + " && " +
-                              SEVENFOLD_BINARY + " " + arguments + " >" + out_path + " 2>" +
-                              err_path + " </dev/null";
-  const int raw = std::system(command.c_str());
-  RunResult result;
-  result.exit_status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
-  result.out = ReadWhole(out_path);
-  result.err = ReadWhole(err_path);
-  std::filesystem::remove(out_path);
-  std::filesystem::remove(err_path);
-  return result;
-}
+RunResult Run(const std::string& arguments) { return sevenfold::testing::RunBinary(arguments); }
 
 TEST_CASE("table prints the fixed CSV header and JANAF-close values", "[cli]") {
   const RunResult run =

@@ -25,6 +25,7 @@
 #include "report/report_data.h"
 #include "report/report_document.h"
 #include "report/report_svg.h"
+#include "run_binary.h"
 #include "species/species_reader.h"
 
 namespace {
@@ -35,12 +36,7 @@ namespace fs = std::filesystem;
 const std::string kSpeciesFile =
     std::string(SEVENFOLD_SOURCE_DIR) + "/tests/data/reference-species.yaml";
 
-std::string ReadWhole(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  std::stringstream buffer;
-  buffer << in.rdbuf();
-  return buffer.str();
-}
+using testing::ReadWhole;
 
 void WriteWhole(const std::string& path, const std::string& text) {
   std::ofstream out(path, std::ios::binary);
@@ -125,30 +121,9 @@ int NumDrawnPolylines(const std::string& svg) {
   return n;
 }
 
-struct RunResult {
-  int exit_status = -1;
-  std::string out;
-  std::string err;
-};
+using testing::RunResult;
 
-RunResult Run(const std::string& arguments) {
-  static int counter = 0;
-  const fs::path stem =
-      fs::temp_directory_path() /
-      ("sevenfold_report_run_" + std::to_string(getpid()) + "_" + std::to_string(++counter));
-  const std::string out_path = stem.string() + ".out", err_path = stem.string() + ".err";
-  const std::string command = std::string("cd ") + SEVENFOLD_SOURCE_DIR + " && " +
-                              SEVENFOLD_BINARY + " " + arguments + " >" + out_path + " 2>" +
-                              err_path + " </dev/null";
-  const int raw = std::system(command.c_str());
-  RunResult result;
-  result.exit_status = WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
-  result.out = ReadWhole(out_path);
-  result.err = ReadWhole(err_path);
-  fs::remove(out_path);
-  fs::remove(err_path);
-  return result;
-}
+RunResult Run(const std::string& arguments) { return testing::RunBinary(arguments); }
 
 }  // namespace
 
