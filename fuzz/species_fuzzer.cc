@@ -1,7 +1,9 @@
 // SPDX-License-Identifier: MIT
 // libFuzzer target: the species loader (ReadSpeciesText). Any input must either load or throw
 // sevenfold::Error. A loaded species must hold finite values inside the bands the reader
-// promises; anything else (another exception, a crash, a sanitizer report, a hang) is a finding.
+// promises, and the item-by-item reading must agree with the whole-document one (same species,
+// digests and locations, or the same message); anything else (another exception, a crash, a
+// sanitizer report, a hang) is a finding.
 // The statistical-mechanics engine is not run here: one asymmetric top costs about a second in
 // this instrumented build, which would cut the executions a hundredfold; the engine's response
 // to extreme accepted values is covered by tests/property_test.cc and docs/robustness.md.
@@ -54,16 +56,54 @@ void CheckLoaded(const sevenfold::Species& s) {
   if (s.MolarMassKgPerMol() <= 0.0 && s.charge <= 0) Finding(s.name + ": molar mass <= 0");
 }
 
+// One reading of `text`: the species, or the error message.
+struct Reading {
+  bool ok = false;
+  std::vector<sevenfold::Species> species;
+  std::string error;
+};
+
+Reading Read(const std::string& text, bool allow_split) {
+  Reading reading;
+  try {
+    reading.species = sevenfold::detail::ReadSpeciesTextForTesting(text, "fuzz.yaml", allow_split,
+                                                                   1, nullptr);
+    reading.ok = true;
+  } catch (const sevenfold::Error& error) {
+    reading.error = error.what();  // rejected with a message: the expected outcome for bad input
+  }
+  return reading;
+}
+
+// The item-by-item reading (when the text scan takes it) and the whole-document reading must
+// agree: the same message, or the same species (the digest covers their content).
+void CheckSameReading(const Reading& split, const Reading& whole) {
+  if (split.ok != whole.ok) {
+    Finding("one reading failed, the other did not: " + split.error + whole.error);
+  }
+  if (!split.ok) {
+    if (split.error != whole.error) {
+      Finding("different messages:\n" + split.error + "\n" + whole.error);
+    }
+    return;
+  }
+  if (split.species.size() != whole.species.size()) Finding("different species counts");
+  for (std::size_t i = 0; i < split.species.size(); ++i) {
+    const sevenfold::Species& a = split.species[i];
+    const sevenfold::Species& b = whole.species[i];
+    if (a.name != b.name || a.input_digest != b.input_digest ||
+        a.location.line != b.location.line || a.location.column != b.location.column) {
+      Finding("species " + std::to_string(i) + " differs between the two readings");
+    }
+  }
+}
+
 }  // namespace
 
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
   const std::string text(reinterpret_cast<const char*>(data), size);
-  std::vector<sevenfold::Species> species;
-  try {
-    species = sevenfold::ReadSpeciesText(text, "fuzz.yaml");
-  } catch (const sevenfold::Error&) {
-    return 0;  // rejected with a message: the expected outcome for bad input
-  }
-  for (const sevenfold::Species& one : species) CheckLoaded(one);
+  const Reading split = Read(text, true);
+  CheckSameReading(split, Read(text, false));
+  for (const sevenfold::Species& one : split.species) CheckLoaded(one);
   return 0;
 }
