@@ -39,7 +39,8 @@ void SetupFitCommand(CLI::App& app, int& exit_status) {
 }
 
 int RunFitCommand(const FitCommandOptions& options) {
-  const std::vector<Species> species = LoadSpecies(options.species_files, options.species_names, options.num_jobs);
+  const std::vector<Species> species =
+      LoadSpecies(options.species_files, options.species_names, options.num_jobs);
   RegenerateOptions regenerate = MakeRegenerateOptions(options.mid, options.num_jobs);
   regenerate.continuous_second_derivative = options.continuous_second_derivative;
   ProgressBar progress("fit", options.quiet);

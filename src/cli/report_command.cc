@@ -52,7 +52,8 @@ void SetupReportCommand(CLI::App& app, int& exit_status) {
 }
 
 int RunReportCommand(const ReportCommandOptions& options) {
-  const std::vector<Species> species = LoadSpecies(options.species_files, options.species_names, options.num_jobs);
+  const std::vector<Species> species =
+      LoadSpecies(options.species_files, options.species_names, options.num_jobs);
   const RegenerateOptions regenerate = MakeRegenerateOptions(options.mid, options.num_jobs);
 
   ReportInput input;

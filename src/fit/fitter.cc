@@ -293,26 +293,12 @@ class ConstrainedFitter {
 
     // |A x - b|^2 = |R x - Q^T b|^2 + (a constant) with A = Q R the block-diagonal QR of the
     // weighted rows: the problem is solved on the 14 x 14 factor, and the residuals are taken
-    // from the rows themselves. The factors come from PrepareSearch() when it ran, else from the
-    // same Givens updates over the rows of each range.
-    Triangle8 low_factor = Triangle8::Zero(), high_factor = Triangle8::Zero();
-    if (!below_.empty()) {
-      low_factor = below_[split];
-      high_factor = above_[split];
-    } else {
-      // In PrepareSearch()'s order (the high range from the top down), so that a fit at a fixed
-      // mid temperature and the automatic fit that chose it give the same bits.
-      for (std::size_t k = 0; k < 3 * split; ++k) AddRow(low_factor, rows_[k]);
-      for (std::size_t i = n; i-- > split;) {
-        for (std::size_t k = 3 * i; k < 3 * i + 3; ++k) AddRow(high_factor, rows_[k]);
-      }
-    }
-    Matrix a = Matrix::Zero(14, 14);
-    Vector b(14);
-    a.topLeftCorner(7, 7) = low_factor.topLeftCorner<7, 7>();
-    a.bottomRightCorner(7, 7) = high_factor.topLeftCorner<7, 7>();
-    b.head(7) = low_factor.col(7).head<7>();
-    b.tail(7) = high_factor.col(7).head<7>();
+    // from the rows themselves.
+    Matrix14 factor;
+    Vector14 target;
+    SplitFactor(split, factor, target);
+    const Matrix a = factor;
+    const Vector b = target;
     Matrix c;
     Vector d;
     BuildConstraints(t_mid_k, c, d);
@@ -352,18 +338,11 @@ class ConstrainedFitter {
     solution.polynomial.high = ToKelvinCoefficients(x, 7);
 
     // The p-norm of the normalised residuals, scaled by the largest to avoid overflow.
-    Vector residual(static_cast<Eigen::Index>(rows_.size()));
-    for (std::size_t k = 0; k < rows_.size(); ++k) {
-      Row8 coefficients;
-      coefficients << x.segment<7>(k < 3 * split ? 0 : 7).transpose(), -1.0;
-      residual[static_cast<Eigen::Index>(k)] = rows_[k].dot(coefficients);
-    }
-    const double largest = residual.cwiseAbs().maxCoeff();
+    std::vector<double> residual;
+    const double largest = AbsoluteResiduals(Vector14(x), split, residual);
     double sum = 0.0;
     if (largest > 0.0) {
-      for (Eigen::Index i = 0; i < residual.size(); ++i) {
-        sum += std::pow(std::fabs(residual[i]) / largest, kObjectiveExponent);
-      }
+      for (const double value : residual) sum += std::pow(value / largest, kObjectiveExponent);
     }
     solution.max_normalised_error = largest;
     solution.objective =
@@ -441,41 +420,18 @@ class ConstrainedFitter {
         n - split < static_cast<std::size_t>(kMinPointsPerRange)) {
       return std::numeric_limits<double>::quiet_NaN();
     }
-    Matrix14 factor = Matrix14::Zero();
+    Matrix14 factor;
     Vector14 target;
-    const Triangle8& low = below_[split];
-    const Triangle8& high = above_[split];
-    factor.topLeftCorner<7, 7>() = low.topLeftCorner<7, 7>();
-    factor.bottomRightCorner<7, 7>() = high.topLeftCorner<7, 7>();
-    target.head<7>() = low.col(7).head<7>();
-    target.tail<7>() = high.col(7).head<7>();
+    SplitFactor(split, factor, target);
 
     ConstraintMatrix c;
     ConstraintVector d;
     BuildConstraints(t_mid_k, c, d);
     const Vector14 x = SolveOnFactor(factor, target, c, d);
 
-    // Each residual is row . [x_range; -1]: one 8-wide dot product per row.
-    const std::size_t low_rows = 3 * split;
-    auto extended = [&x](int offset) {
-      Row8 coefficients;
-      coefficients << x.segment<7>(offset).transpose(), -1.0;
-      return coefficients;
-    };
-    const Row8 low_x = extended(0), high_x = extended(7);
     // Residuals and their p-norm as in Solve(), with x^16 by squaring and one division.
     std::vector<double>& residual = residual_scratch_;
-    residual.resize(rows_.size());
-    double largest = 0.0;
-    const auto residuals = [&](std::size_t begin, std::size_t end, const Row8& coefficients) {
-      for (std::size_t k = begin; k < end; ++k) {
-        const double value = std::fabs(rows_[k].dot(coefficients));
-        residual[k] = value;
-        largest = std::max(largest, value);
-      }
-    };
-    residuals(0, low_rows, low_x);
-    residuals(low_rows, rows_.size(), high_x);
+    const double largest = AbsoluteResiduals(x, split, residual);
     if (!(largest > 0.0)) return largest == 0.0 ? 0.0 : std::numeric_limits<double>::quiet_NaN();
     const double inverse_largest = 1.0 / largest;
     double sum = 0.0;
@@ -485,6 +441,47 @@ class ConstrainedFitter {
   }
 
  private:
+  // The block-diagonal triangular factor R and Q^T b of the rows below and at or above `split`:
+  // from PrepareSearch() when it ran, else by the same Givens updates in the same order (the high
+  // range from the top down), so that a fit at a fixed mid temperature and the automatic fit that
+  // chose it give the same bits.
+  void SplitFactor(std::size_t split, Matrix14& r, Vector14& g) const {
+    Triangle8 low = Triangle8::Zero(), high = Triangle8::Zero();
+    if (!below_.empty()) {
+      low = below_[split];
+      high = above_[split];
+    } else {
+      for (std::size_t k = 0; k < 3 * split; ++k) AddRow(low, rows_[k]);
+      for (std::size_t i = exact_.t_k.size(); i-- > split;) {
+        for (std::size_t k = 3 * i; k < 3 * i + 3; ++k) AddRow(high, rows_[k]);
+      }
+    }
+    r.setZero();
+    r.topLeftCorner<7, 7>() = low.topLeftCorner<7, 7>();
+    r.bottomRightCorner<7, 7>() = high.topLeftCorner<7, 7>();
+    g.head<7>() = low.col(7).head<7>();
+    g.tail<7>() = high.col(7).head<7>();
+  }
+
+  // |row . [x_range; -1]| of every weighted row into `out` (one 8-wide dot product per row), and
+  // the largest of them.
+  double AbsoluteResiduals(const Vector14& x, std::size_t split, std::vector<double>& out) const {
+    out.resize(rows_.size());
+    double largest = 0.0;
+    const auto pass = [&](std::size_t begin, std::size_t end, int offset) {
+      Row8 coefficients;
+      coefficients << x.segment<7>(offset).transpose(), -1.0;
+      for (std::size_t k = begin; k < end; ++k) {
+        const double value = std::fabs(rows_[k].dot(coefficients));
+        out[k] = value;
+        largest = std::max(largest, value);
+      }
+    };
+    pass(0, 3 * split, 0);
+    pass(3 * split, rows_.size(), 7);
+    return largest;
+  }
+
   const ExactCurves& exact_;
   const FitOptions& options_;
   const QualityThresholds& thresholds_;

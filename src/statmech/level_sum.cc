@@ -2,6 +2,7 @@
 #include "statmech/level_sum.h"
 
 #include <cmath>
+#include <cstddef>
 
 namespace sevenfold {
 namespace {
@@ -43,20 +44,20 @@ Moments LevelSumMoments(const std::vector<Level>& levels, double t_k) {
 
 Cumulants LevelSumCumulants(const std::vector<Level>& levels, double t_k) {
   const double inverse_t = 1.0 / t_k;
+  std::vector<double> weights(levels.size());
   double sum_weight = 0.0, sum_energy = 0.0;
-  for (const Level& level : levels) {
-    const double weight = level.degeneracy * std::exp(-level.energy_k * inverse_t);
-    sum_weight += weight;
-    sum_energy += weight * level.energy_k;
+  for (std::size_t i = 0; i < levels.size(); ++i) {
+    weights[i] = levels[i].degeneracy * std::exp(-levels[i].energy_k * inverse_t);
+    sum_weight += weights[i];
+    sum_energy += weights[i] * levels[i].energy_k;
   }
   const double mean = sum_energy / sum_weight;
   double m2 = 0.0, m3 = 0.0, m4 = 0.0;  // central moments times sum_weight
-  for (const Level& level : levels) {
-    const double weight = level.degeneracy * std::exp(-level.energy_k * inverse_t);
-    const double d = level.energy_k - mean, d2 = d * d;
-    m2 += weight * d2;
-    m3 += weight * d2 * d;
-    m4 += weight * d2 * d2;
+  for (std::size_t i = 0; i < levels.size(); ++i) {
+    const double d = levels[i].energy_k - mean, d2 = d * d;
+    m2 += weights[i] * d2;
+    m3 += weights[i] * d2 * d;
+    m4 += weights[i] * d2 * d2;
   }
   m2 /= sum_weight;
   m3 /= sum_weight;

@@ -189,7 +189,8 @@ RotorContribution RotorContribution::FromLevels(std::vector<Level> levels,
 
 void RotorContribution::MatchTail() {
   // With y_n = c_n / T^n and the falling factorial n^(k) = n (n-1) ... (n-k+1), the series gives
-  //   ln q = ln q_cl + c1/T + sum y_n,   kappa_k = (k-1)! p T^k - [k = 1] c1 + (-1)^k T^k sum n^(k) y_n
+  //   ln q = ln q_cl + c1/T + sum y_n,
+  //   kappa_k = (k-1)! p T^k - [k = 1] c1 + (-1)^k T^k sum n^(k) y_n
   // for the cumulants kappa_1 = <E>, kappa_2 = Var, ... (derivatives of ln q in 1/T). Matching
   // ln q and kappa_1..4 of the level sum fixes y_2..y_6: a 5 x 5 linear system.
   constexpr int kMatched = kTailTerms - 1;
