@@ -5,6 +5,6 @@
 set -euo pipefail
 cd "$(dirname "$0")/.."
 bash scripts/install-deps.sh
-cmake -S . -B build -DCMAKE_BUILD_TYPE=Release >/dev/null
+bash scripts/configure-demo.sh build
 cmake --build build -j "$(nproc)" --target sevenfold_cli
 bash scripts/regenerate-output.sh build/sevenfold

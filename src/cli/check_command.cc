@@ -29,6 +29,7 @@ void SetupCheckCommand(CLI::App& app, int& exit_status) {
   command->add_option("--junit", options->junit_path,
                       "Also write a JUnit-style XML report here (one test case per species)");
   AddMidOption(*command, options->mid);
+  AddObjectiveOptions(*command, options->objective, options->extrapolation_guard);
   command->add_flag("--smooth-curvature", options->continuous_second_derivative,
                     "Regenerate with d2Cp/dT2 continuous at the mid temperature (as fit does)");
   AddJobsOption(*command, options->num_jobs);
@@ -40,7 +41,8 @@ int RunCheckCommand(const CheckCommandOptions& options) {
   // Read both inputs before the long part, so a malformed file fails fast.
   const std::vector<Species> species = LoadSpecies(options.species_files, {}, options.num_jobs);
   const EntriesFile committed = ReadEntriesFile(options.entries_path);
-  RegenerateOptions regenerate = MakeRegenerateOptions(options.mid, options.num_jobs);
+  RegenerateOptions regenerate = MakeRegenerateOptions(options.mid, options.objective, options.extrapolation_guard,
+                            options.num_jobs);
   regenerate.continuous_second_derivative = options.continuous_second_derivative;
   ProgressBar progress("check", options.quiet);
   regenerate.progress = progress.Callback();

@@ -15,6 +15,8 @@ struct CheckCommandOptions {
   std::string entries_path;
   std::string junit_path;   // empty: no JUnit report
   std::string mid;          // "" (each species' own), "auto", or a temperature in K
+  std::string objective;            // "" (each species' own), "minimax" or "least-squares"
+  std::string extrapolation_guard;  // "" (each species' own), "off" or "FACTOR:BAND"
   bool continuous_second_derivative = false;
   int num_jobs = 0;         // 0: hardware threads
   bool quiet = false;

@@ -71,9 +71,35 @@ void AddJobsOption(CLI::App& command, int& num_jobs) {
       ->check(CLI::Range(1, 1024));
 }
 
-RegenerateOptions MakeRegenerateOptions(const std::string& mid, int num_jobs) {
+void AddObjectiveOptions(CLI::App& command, std::string& objective, std::string& guard) {
+  command.add_option("--objective", objective,
+                     "What the fit minimises: 'minimax' (the worst normalised error) or "
+                     "'least-squares' (default: each species' own setting, else minimax)");
+  command.add_option("--extrapolation-guard", guard,
+                     "Keep fitted Cp within BAND of the exact model up to FACTOR x T_high and "
+                     "down to T_low / FACTOR: 'off' or FACTOR:BAND (default: each species' own "
+                     "setting, else 1.25:0.2)");
+}
+
+RegenerateOptions MakeRegenerateOptions(const std::string& mid, const std::string& objective,
+                                        const std::string& guard, int num_jobs) {
   RegenerateOptions options;
   options.num_jobs = num_jobs;
+  if (!objective.empty()) {
+    options.objective_override = ParseFitObjective(objective);
+    if (!options.objective_override) {
+      throw Error(fmt::format("--objective {}: expected 'minimax' or 'least-squares'", objective));
+    }
+  }
+  if (!guard.empty()) {
+    options.extrapolation_guard_override = ParseExtrapolationGuard(guard);
+    if (!options.extrapolation_guard_override) {
+      throw Error(fmt::format(
+          "--extrapolation-guard {}: expected 'off' or FACTOR:BAND with 1 < FACTOR <= 4 and "
+          "0 < BAND <= 1, e.g. 1.25:0.2",
+          guard));
+    }
+  }
   if (mid == "auto") {
     options.force_auto_mid = true;
   } else if (!mid.empty()) {

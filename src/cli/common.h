@@ -39,8 +39,13 @@ void AddFormatOption(CLI::App& command, TableFormat& format);
 void AddMidOption(CLI::App& command, std::string& mid);
 // Adds --jobs N (default: the machine's hardware threads).
 void AddJobsOption(CLI::App& command, int& num_jobs);
-// Turns --mid and --jobs into regeneration options. Throws Error for a bad --mid.
-RegenerateOptions MakeRegenerateOptions(const std::string& mid, int num_jobs);
+// Adds --objective (minimax|least-squares) and --extrapolation-guard (off|FACTOR:BAND); both
+// absent means each species' own setting (docs/fitting.md).
+void AddObjectiveOptions(CLI::App& command, std::string& objective, std::string& guard);
+// Turns --mid, --objective, --extrapolation-guard and --jobs into regeneration options. Throws
+// Error for a malformed value.
+RegenerateOptions MakeRegenerateOptions(const std::string& mid, const std::string& objective,
+                                        const std::string& guard, int num_jobs);
 
 // Prints each fit that misses its thresholds, or whose extrapolation leaves the sane band, on
 // stderr naming the species and its file location. Returns 1 when a fit misses its thresholds

@@ -26,6 +26,7 @@ void SetupFitCommand(CLI::App& app, int& exit_status) {
   command->add_option("-o,--output", options->output_path, "Entries file to write")->required();
   command->add_option("--species", options->species_names, "Only this species (repeatable)");
   AddMidOption(*command, options->mid);
+  AddObjectiveOptions(*command, options->objective, options->extrapolation_guard);
   command->add_flag("--smooth-curvature", options->continuous_second_derivative,
                     "Also make d2Cp/dT2 continuous at the mid temperature");
   command->add_flag("--allow-poor-fits", options->allow_poor_fits,
@@ -41,7 +42,8 @@ void SetupFitCommand(CLI::App& app, int& exit_status) {
 int RunFitCommand(const FitCommandOptions& options) {
   const std::vector<Species> species =
       LoadSpecies(options.species_files, options.species_names, options.num_jobs);
-  RegenerateOptions regenerate = MakeRegenerateOptions(options.mid, options.num_jobs);
+  RegenerateOptions regenerate = MakeRegenerateOptions(options.mid, options.objective, options.extrapolation_guard,
+                            options.num_jobs);
   regenerate.continuous_second_derivative = options.continuous_second_derivative;
   ProgressBar progress("fit", options.quiet);
   regenerate.progress = progress.Callback();

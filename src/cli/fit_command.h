@@ -15,6 +15,8 @@ struct FitCommandOptions {
   std::vector<std::string> species_names;  // empty: all
   std::string output_path;
   std::string mid;          // "" (each species' own), "auto", or a temperature in K
+  std::string objective;            // "" (each species' own), "minimax" or "least-squares"
+  std::string extrapolation_guard;  // "" (each species' own), "off" or "FACTOR:BAND"
   bool continuous_second_derivative = false;
   bool allow_poor_fits = false;
   bool keep_going = false;  // write the good entries, list the species that failed, exit 1

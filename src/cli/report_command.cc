@@ -45,6 +45,7 @@ void SetupReportCommand(CLI::App& app, int& exit_status) {
                    "An older entries file whose curves are drawn for comparison")
       ->check(CLI::ExistingFile);
   AddMidOption(*command, options->mid);
+  AddObjectiveOptions(*command, options->objective, options->extrapolation_guard);
   command->get_option("--mid")->excludes(entries);
   AddJobsOption(*command, options->num_jobs);
   command->add_flag("-q,--quiet", options->quiet, "No progress bar");
@@ -54,7 +55,8 @@ void SetupReportCommand(CLI::App& app, int& exit_status) {
 int RunReportCommand(const ReportCommandOptions& options) {
   const std::vector<Species> species =
       LoadSpecies(options.species_files, options.species_names, options.num_jobs);
-  const RegenerateOptions regenerate = MakeRegenerateOptions(options.mid, options.num_jobs);
+  const RegenerateOptions regenerate = MakeRegenerateOptions(options.mid, options.objective, options.extrapolation_guard,
+                            options.num_jobs);
 
   ReportInput input;
   input.tool_version = SEVENFOLD_VERSION;

@@ -16,6 +16,8 @@ struct ReportCommandOptions {
   std::string baseline_path;               // empty: no baseline
   std::string output_dir;
   std::string mid;   // "" (each species' own), "auto", or a temperature in K; fitting only
+  std::string objective;            // "" (each species' own), "minimax" or "least-squares"
+  std::string extrapolation_guard;  // "" (each species' own), "off" or "FACTOR:BAND"
   int num_jobs = 0;  // 0: hardware threads
   bool quiet = false;
 };

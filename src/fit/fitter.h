@@ -10,11 +10,18 @@
 
 #include "fit/polynomial.h"
 #include "fit/quality.h"
-#include "species/species.h"
+#include "core/fit_settings.h"
 
 namespace sevenfold {
 
 struct FitOptions {
+  // What is minimised over the grid (docs/fitting.md, "Objective").
+  FitObjective objective = FitObjective::kMinimax;
+  // The scales that normalise |dCp|/Cp, |dH|/RT and |dS|/R inside the objective (weights, not
+  // thresholds).
+  ErrorScales error_scales;
+  // Constraint on Cp beyond both ends of the range, inside the optimisation.
+  ExtrapolationGuard extrapolation_guard;
   // Mid temperature, K; empty means choose it automatically (scan + Ceres refinement).
   std::optional<double> t_mid_k;
   // Also make d2Cp/dT2 continuous at t_mid_k.
@@ -61,6 +68,8 @@ struct FitResult {
   // The largest normalised residual over the whole grid (1 means "exactly at a threshold").
   double max_normalised_error = 0.0;
   MidTemperatureChoice mid_choice;
+  // What the form can reach when this fit misses its thresholds (computed only then).
+  FormLimit form_limit;
 };
 
 // Fits the exact curves (docs/fitting.md). Throws Error when the request is impossible

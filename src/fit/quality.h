@@ -67,6 +67,22 @@ inline constexpr double kExtrapolationUpperMargin = 4.0;
 // nonlinear 3 N - 2). num_atoms must be >= 1.
 double ClassicalLimitCpOverR(int num_atoms);
 
+// What the 7-coefficient form can reach for a species over its requested range, under the same
+// constraints and objective: filled when a fit misses its thresholds (docs/fitting.md, "Verdicts").
+struct FormLimit {
+  bool computed = false;  // false: not evaluated (the fit met its thresholds)
+  // The smallest achievable max over the grid of max(|dCp|/Cp / thr_cp, |dH|/RT / thr_h,
+  // |dS|/R / thr_s) for this range and mid-temperature choice: <= 1 means some fit of the form
+  // meets the thresholds, > 1 means none does ("at the form's limit").
+  double best_threshold_ratio = 0.0;
+  // The widest [low, high] inside the requested range that meets the thresholds at the optimum;
+  // passing_range_found false when none of the tried ranges does.
+  bool passing_range_found = false;
+  double passing_t_low_k = 0.0;
+  double passing_t_high_k = 0.0;
+  bool AtFormLimit() const { return computed && best_threshold_ratio > 1.0; }
+};
+
 // Errors of the coefficients `a` against exact points [begin, end) of `exact`.
 // An empty range gives all zeros.
 RangeQuality MeasureRangeQuality(const NasaCoefficients& a, const ExactCurves& exact,

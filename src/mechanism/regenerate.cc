@@ -22,6 +22,13 @@ FitOptions FitOptionsFor(const Species& species, const RegenerateOptions& option
     fit_options.t_mid_k = species.temperatures.mid_k;
   }
   fit_options.continuous_second_derivative = options.continuous_second_derivative;
+  const FitRequest& request = species.fit_request;
+  fit_options.objective = options.objective_override.value_or(
+      request.objective.value_or(fit_options.objective));
+  fit_options.extrapolation_guard = options.extrapolation_guard_override.value_or(
+      request.extrapolation_guard.value_or(fit_options.extrapolation_guard));
+  fit_options.error_scales = options.error_scales_override.value_or(
+      request.error_scales.value_or(fit_options.error_scales));
   fit_options.num_atoms = species.NumAtoms();
   return fit_options;
 }

@@ -20,6 +20,10 @@ struct RegenerateOptions {
   // When true the species' own mid temperature is ignored and chosen automatically.
   bool force_auto_mid = false;
   bool continuous_second_derivative = false;
+  // Override every species' own setting when set (from the command line).
+  std::optional<FitObjective> objective_override;
+  std::optional<ExtrapolationGuard> extrapolation_guard_override;
+  std::optional<ErrorScales> error_scales_override;
   // Worker threads; 0 means the machine's hardware threads.
   int num_jobs = 0;
   // Called after each species finishes, from a worker thread (must be thread-safe).

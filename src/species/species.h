@@ -9,6 +9,7 @@
 #include <vector>
 
 #include "core/error.h"
+#include "core/fit_settings.h"
 
 namespace sevenfold {
 
@@ -24,11 +25,16 @@ struct TemperatureRanges {
   double high_k = 6000.0;
 };
 
-// Quality thresholds a fit must meet over each range (see docs/fitting.md).
-struct QualityThresholds {
-  double max_cp_relative = 0.005;  // max |dCp| / Cp_exact
-  double max_h_over_rt = 0.002;    // max |dH| / (R T)
-  double max_s_over_r = 0.002;     // max |dS| / R
+// What the species file asks of the fit beyond the temperatures and thresholds. An empty
+// optional means the file says nothing: then the command line, then (for `check`) what the
+// committed entry records, then the default decides (docs/fitting.md).
+struct FitRequest {
+  // True when the file sets the mid temperature (a value or auto) for this species or in its
+  // defaults; false when TemperatureRanges::mid_k is only the built-in default.
+  bool mid_given = false;
+  std::optional<FitObjective> objective;
+  std::optional<ExtrapolationGuard> extrapolation_guard;
+  std::optional<ErrorScales> error_scales;
 };
 
 struct ElectronicLevel {
@@ -99,6 +105,7 @@ struct Species {
   TemperatureRanges temperatures;
   double standard_pressure_pa = 1.0e5;
   QualityThresholds thresholds;
+  FitRequest fit_request;
 
   // Optional physics beyond the rigid rotor / harmonic oscillator.
   std::vector<DiatomicState> diatomic_states;  // empty: rigid rotor + harmonic oscillator
