@@ -236,13 +236,13 @@ TEST_CASE("a known continuous pair of polynomials is recovered", "[fit]") {
     CHECK(RelativeDifference((*fitted)[6], (*exact)[6], std::fabs((*exact)[6])) <=
           kRecoveryTolerance);
   }
-  for (const RangeQuality* q : {&fit.low_range, &fit.high_range}) {
+  for (const RangeQuality* q : {&fit.quality.low_range, &fit.quality.high_range}) {
     CHECK(q->max_cp_relative <= kRecoveryTolerance);
     CHECK(q->max_h_over_rt <= kRecoveryTolerance);
     CHECK(q->max_s_over_r <= kRecoveryTolerance);
     CHECK(q->max_g_over_rt <= kRecoveryTolerance);
   }
-  CHECK(fit.meets_thresholds);
+  CHECK(fit.quality.MeetsThresholds());
   CHECK(fit.mid_choice.method == MidTemperatureMethod::kFixed);
 }
 
@@ -271,13 +271,13 @@ TEST_CASE("fit of an Einstein gas is continuous at the mid temperature and exact
       // at the customary 1000 K it misses them (max normalised error ~3). Failing fits are
       // covered by the test with a sharp low-temperature feature below.
       if (!t_mid_k && !second_derivative) {
-        INFO((fit.threshold_failures.empty() ? "" : fit.threshold_failures.front()) << " | "
-             << fit.extrapolation.message << " | t_mid " << fit.polynomial.t_mid_k);
-        CHECK(fit.meets_thresholds);
-        CHECK(fit.threshold_failures.empty());
-        CHECK(fit.extrapolation.sane);
+        INFO((fit.quality.threshold_failures.empty() ? "" : fit.quality.threshold_failures.front()) << " | "
+             << fit.quality.extrapolation.message << " | t_mid " << fit.polynomial.t_mid_k);
+        CHECK(fit.quality.MeetsThresholds());
+        CHECK(fit.quality.threshold_failures.empty());
+        CHECK(fit.quality.extrapolation.sane);
       }
-      CHECK(fit.low_range.num_points + fit.high_range.num_points ==
+      CHECK(fit.quality.low_range.num_points + fit.quality.high_range.num_points ==
             static_cast<int>(curves.t_k.size()));
     }
   }
@@ -401,11 +401,11 @@ TEST_CASE("a curve with a sharp low-temperature feature is reported as failing",
   FitOptions options;
   options.t_mid_k = 1000.0;
   const FitResult fit = FitTwoRange(curves, options, QualityThresholds{});
-  CHECK_FALSE(fit.meets_thresholds);
-  REQUIRE_FALSE(fit.threshold_failures.empty());
-  CHECK_THAT(fit.threshold_failures.front(), Catch::StartsWith("low range: max |dCp|/Cp = "));
-  CHECK(fit.low_range.max_cp_relative > QualityThresholds{}.max_cp_relative);
-  CHECK(fit.low_range.max_cp_error_t_k < 100.0);  // the failure sits in the feature
+  CHECK_FALSE(fit.quality.MeetsThresholds());
+  REQUIRE_FALSE(fit.quality.threshold_failures.empty());
+  CHECK_THAT(fit.quality.threshold_failures.front(), Catch::StartsWith("low range: max |dCp|/Cp = "));
+  CHECK(fit.quality.low_range.max_cp_relative > QualityThresholds{}.max_cp_relative);
+  CHECK(fit.quality.low_range.max_cp_error_t_k < 100.0);  // the failure sits in the feature
 }
 
 TEST_CASE("extrapolation outside the sane band is reported", "[fit]") {
@@ -474,9 +474,9 @@ TEST_CASE("every demo species fits continuously at T_mid and exactly at 298.15 K
   const std::vector<SpeciesFit> fits = FitAllSpecies(species, options);
   for (const SpeciesFit& result : fits) {
     INFO(result.species->name << " t_mid " << result.fit.polynomial.t_mid_k << " "
-                              << (result.fit.threshold_failures.empty()
+                              << (result.fit.quality.threshold_failures.empty()
                                       ? std::string()
-                                      : result.fit.threshold_failures.front()));
+                                      : result.fit.quality.threshold_failures.front()));
     RequireContinuous(result.fit.polynomial, false);
     const auto at_reference = std::lower_bound(result.exact.t_k.begin(), result.exact.t_k.end(),
                                                kReferenceTemperature);
@@ -489,7 +489,7 @@ TEST_CASE("every demo species fits continuously at T_mid and exactly at 298.15 K
       CHECK(RelativeDifference(SOverR(result.fit.polynomial, t), result.exact.s_over_r[i],
                                result.exact.s_over_r[i]) <= kConstraintTolerance);
     }
-    CHECK(result.fit.meets_thresholds);
+    CHECK(result.fit.quality.MeetsThresholds());
   }
 }
 

@@ -314,7 +314,7 @@ TEST_CASE("check reports fits that miss their quality thresholds", "[mechanism]"
                     "    vibrations: [2329.9]\n    fit-thresholds: {cp: 0.00001}\n"),
         kReferenceName);
     const std::vector<SpeciesFit> fits = FitAllSpecies(strict, Base(2));
-    REQUIRE_FALSE(fits[0].fit.meets_thresholds);
+    REQUIRE_FALSE(fits[0].fit.quality.MeetsThresholds());
     const CheckResult result = CheckEntries(fits, Committed(fits, Base(2)), Base(2));
     REQUIRE(Summary(result) == std::vector<std::string>{"N2 fit-fails"});
     CHECK_THAT(result.findings[0].message, Contains("committed entry and regeneration"));
@@ -325,7 +325,6 @@ TEST_CASE("check reports fits that miss their quality thresholds", "[mechanism]"
     const std::vector<SpeciesFit> fits = FitAllSpecies(species, Base(2));
     EntriesFile committed = Committed(fits, Base(2));
     Entry& h2o = *FindEntry(committed, "H2O");
-    h2o.quality.meets_thresholds = false;
     h2o.quality.threshold_failures = {"low range: max |dCp|/Cp = 0.71 % at 215 K exceeds 0.5 %"};
     const CheckResult result = CheckEntries(fits, committed, Base(2));
     REQUIRE(Summary(result) == std::vector<std::string>{"H2O fit-fails"});
@@ -398,7 +397,7 @@ TEST_CASE("the JUnit report has one test case per species and escapes text", "[m
 }
 
 // The worst error of a fit in units of its thresholds, over both ranges: Cp, H and S.
-double WorstNormalisedError(const EntryQuality& quality, const QualityThresholds& thresholds) {
+double WorstNormalisedError(const FitQuality& quality, const QualityThresholds& thresholds) {
   double worst = 0.0;
   for (const RangeQuality* range : {&quality.low_range, &quality.high_range}) {
     worst = std::max({worst, range->max_cp_relative / thresholds.max_cp_relative,

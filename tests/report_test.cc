@@ -181,7 +181,7 @@ TEST_CASE("report lists species worst fit first in every document", "[report]") 
   const ReportData data = Analyse(spoiled, nullptr, 2);
   REQUIRE(data.species.size() == 4);
   CHECK(data.species.front().name == "H2O");
-  CHECK_FALSE(data.species.front().fit.meets_thresholds);
+  CHECK_FALSE(data.species.front().fit.quality.MeetsThresholds());
   CHECK(data.NumFailing() == plain.NumFailing() + 1);
   for (size_t i = 1; i < data.species.size(); ++i) {
     CHECK(data.species[i - 1].fit.max_normalised_error >= data.species[i].fit.max_normalised_error);
@@ -193,9 +193,9 @@ TEST_CASE("report lists species worst fit first in every document", "[report]") 
                                     spoiled.entries.end(),
                                     [&](const Entry& e) { return e.name == s.name; });
     REQUIRE(entry != spoiled.entries.end());
-    CHECK(s.fit.low_range.max_cp_relative == entry->quality.low_range.max_cp_relative);
-    CHECK(s.fit.high_range.max_s_over_r == entry->quality.high_range.max_s_over_r);
-    CHECK(s.fit.meets_thresholds == entry->quality.meets_thresholds);
+    CHECK(s.fit.quality.low_range.max_cp_relative == entry->quality.low_range.max_cp_relative);
+    CHECK(s.fit.quality.high_range.max_s_over_r == entry->quality.high_range.max_s_over_r);
+    CHECK(s.fit.quality.MeetsThresholds() == entry->quality.MeetsThresholds());
   }
 
   // Same order in the summary table, the Markdown and the JSON.
@@ -327,8 +327,8 @@ TEST_CASE("baseline curves appear only when a baseline is given", "[report]") {
                                 [](const SpeciesReport& s) { return s.name == "H2O"; });
   REQUIRE(h2o != with.species.end());
   REQUIRE(h2o->baseline.has_value());
-  CHECK_FALSE(h2o->fit.meets_thresholds);
-  CHECK(h2o->baseline->meets_thresholds);
+  CHECK_FALSE(h2o->fit.quality.MeetsThresholds());
+  CHECK(h2o->baseline->quality.MeetsThresholds());
   CHECK_THAT(FormatReportJson(with), Catch::Contains("\"baseline_file\": \"old-entries.txt\""));
 }
 

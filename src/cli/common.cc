@@ -123,17 +123,17 @@ int ReportPoorFits(const std::vector<SpeciesFit>& results, bool allow_poor_fits)
   int num_poor = 0;
   for (const SpeciesFit& result : results) {
     const Species& species = *result.species;
-    if (!result.fit.meets_thresholds) {
+    if (!result.fit.quality.MeetsThresholds()) {
       ++num_poor;
-      for (const std::string& failure : result.fit.threshold_failures) {
+      for (const std::string& failure : result.fit.quality.threshold_failures) {
         std::cerr << fmt::format("{}: species '{}': poor fit: {}\n", species.location.ToString(),
                                  species.name, failure);
       }
     }
-    if (!result.fit.extrapolation.sane) {
+    if (!result.fit.quality.extrapolation.sane) {
       std::cerr << fmt::format("{}: species '{}': warning: extrapolation: {}\n",
                                species.location.ToString(), species.name,
-                               result.fit.extrapolation.message);
+                               result.fit.quality.extrapolation.message);
     }
   }
   if (num_poor == 0) return 0;

@@ -19,15 +19,6 @@ inline constexpr int kEntriesFormatVersion = 1;
 // The first word of every entries file.
 inline constexpr const char* kEntriesMagic = "sevenfold-entries";
 
-// How well the polynomial follows the exact curves (docs/fitting.md).
-struct EntryQuality {
-  RangeQuality low_range;
-  RangeQuality high_range;
-  ExtrapolationCheck extrapolation;
-  bool meets_thresholds = true;
-  std::vector<std::string> threshold_failures;  // one line each; empty exactly when met
-};
-
 // Where an entry came from.
 struct EntryProvenance {
   std::string input_sha256;   // 64 lowercase hex digits: digest of the species' input
@@ -45,7 +36,7 @@ struct Entry {
   TwoRangePolynomial polynomial;
   double formation_enthalpy_j_per_mol = 0.0;  // at 298.15 K
   double reference_pressure_pa = 1.0e5;       // standard pressure of the entropy
-  EntryQuality quality;
+  FitQuality quality;  // how well the polynomial follows the exact curves (docs/fitting.md)
   EntryProvenance provenance;
   // Where the block starts when read from a file (file empty for entries made in memory).
   // Not written.
@@ -61,8 +52,7 @@ struct EntriesFile {
 // per entry in the given order. Numbers are written in the shortest form that reads back to the
 // identical double, so FormatEntries(ParseEntries(FormatEntries(f))) == FormatEntries(f).
 // Throws Error naming the species and field when an entry cannot be written (a non-finite
-// number, a malformed digest or element symbol, temperatures out of order, an empty name, a
-// verdict that disagrees with the failure lines).
+// number, a malformed digest or element symbol, temperatures out of order, an empty name).
 std::string FormatEntries(const EntriesFile& file);
 
 // Reads entries from `text`; `file_name` is used in error messages only. Comments and blank

@@ -119,6 +119,9 @@ class Reader {
   }
 
  private:
+  // The verdict line of the block being read; checked against its failure lines at the end.
+  bool recorded_pass_ = true;
+
   // Reads the next raw line (without its end of line) into *raw; false at the end of the text.
   bool RawLine(std::string_view* raw) {
     if (position_ >= text_.size()) return false;
@@ -286,6 +289,7 @@ class Reader {
         kFieldSError,           kFieldGError,           kFieldExtrapolation,  kFieldVerdict,
         kFieldInputSha256,      kFieldToolVersion,      kFieldModel,          kFieldSource};
     std::map<std::string, int> seen;  // field -> line
+    recorded_pass_ = true;
     int verdict_column = 1;
     int first_failure_line = 0, first_failure_column = 1;
     Line line;
@@ -334,14 +338,14 @@ class Reader {
                          kBlockEnd, species, field, kBlockEnd));
       }
     }
-    const EntryQuality& quality = entry.quality;
-    if (!quality.meets_thresholds && quality.threshold_failures.empty()) {
+    const FitQuality& quality = entry.quality;
+    if (!recorded_pass_ && quality.threshold_failures.empty()) {
       Fail(seen[kFieldVerdict], verdict_column,
            fmt::format("found verdict \"{}\" in species {} without any \"{}\" line, expected at "
                        "least one",
                        kVerdictFail, species, kFieldFailure));
     }
-    if (quality.meets_thresholds && !quality.threshold_failures.empty()) {
+    if (recorded_pass_ && !quality.threshold_failures.empty()) {
       Fail(first_failure_line, first_failure_column,
            fmt::format("found a \"{}\" line in species {} whose verdict is \"{}\", expected none",
                        kFieldFailure, species, kVerdictPass));
@@ -477,7 +481,7 @@ class Reader {
              fmt::format("found {}, expected \"{}\" or \"{}\"", Describe(verdict), kVerdictPass,
                          kVerdictFail));
       }
-      entry.quality.meets_thresholds = verdict.text == kVerdictPass;
+      recorded_pass_ = verdict.text == kVerdictPass;
     } else if (field == kFieldFailure) {
       entry.quality.threshold_failures.push_back(values.String("the failure text"));
     } else if (field == kFieldInputSha256) {

@@ -51,12 +51,6 @@ void CheckWritable(const Entry& entry) {
     Refuse(entry, kFieldReferencePressure,
            fmt::format("{} Pa is not positive", entry.reference_pressure_pa));
   }
-  if (entry.quality.meets_thresholds != entry.quality.threshold_failures.empty()) {
-    Refuse(entry, kFieldVerdict,
-           fmt::format("verdict {} disagrees with {} failure lines",
-                       entry.quality.meets_thresholds ? kVerdictPass : kVerdictFail,
-                       entry.quality.threshold_failures.size()));
-  }
   if (!IsSha256Hex(entry.provenance.input_sha256)) {
     Refuse(entry, kFieldInputSha256,
            fmt::format("\"{}\" is not 64 lowercase hexadecimal digits",
@@ -76,7 +70,7 @@ std::string ErrorPair(const Entry& entry, const char* field, double low_max, dou
 void AppendEntry(const Entry& entry, std::string& out) {
   CheckWritable(entry);
   const TwoRangePolynomial& p = entry.polynomial;
-  const EntryQuality& q = entry.quality;
+  const FitQuality& q = entry.quality;
   const RangeQuality& lo = q.low_range;
   const RangeQuality& hi = q.high_range;
   out += fmt::format("{} {}\n", kBlockStart, QuoteString(entry.name));
@@ -118,7 +112,7 @@ void AppendEntry(const Entry& entry, std::string& out) {
                      Number(entry, kFieldExtrapolation, x.min_cp_over_r_above),
                      Number(entry, kFieldExtrapolation, x.max_cp_over_r_above));
   if (!x.message.empty()) out += fmt::format("  {} {}\n", kFieldExtrapolationNote, QuoteString(x.message));
-  out += fmt::format("  {} {}\n", kFieldVerdict, q.meets_thresholds ? kVerdictPass : kVerdictFail);
+  out += fmt::format("  {} {}\n", kFieldVerdict, q.MeetsThresholds() ? kVerdictPass : kVerdictFail);
   for (const std::string& failure : q.threshold_failures) {
     out += fmt::format("  {} {}\n", kFieldFailure, QuoteString(failure));
   }

@@ -767,17 +767,16 @@ FitResult FitTwoRange(const ExactCurves& exact, const FitOptions& options,
   result.polynomial = solution.polynomial;
   result.objective = solution.objective;
   result.max_normalised_error = solution.max_normalised_error;
-  result.low_range = MeasureRangeQuality(solution.polynomial.low, exact, 0, solution.split);
-  result.high_range =
+  result.quality.low_range = MeasureRangeQuality(solution.polynomial.low, exact, 0, solution.split);
+  result.quality.high_range =
       MeasureRangeQuality(solution.polynomial.high, exact, solution.split, exact.t_k.size());
-  result.threshold_failures = ThresholdFailures(result.low_range, result.high_range, thresholds);
-  result.meets_thresholds = result.threshold_failures.empty();
+  result.quality.threshold_failures = ThresholdFailures(result.quality.low_range, result.quality.high_range, thresholds);
   const double upper_cp_over_r =
       (options.num_atoms > 0
            ? ClassicalLimitCpOverR(options.num_atoms)
            : *std::max_element(exact.cp_over_r.begin(), exact.cp_over_r.end())) +
       kExtrapolationUpperMargin;
-  result.extrapolation = CheckExtrapolation(solution.polynomial, upper_cp_over_r);
+  result.quality.extrapolation = CheckExtrapolation(solution.polynomial, upper_cp_over_r);
   return result;
 }
 

@@ -56,11 +56,7 @@ struct MidTemperatureChoice {
 
 struct FitResult {
   TwoRangePolynomial polynomial;
-  RangeQuality low_range;
-  RangeQuality high_range;
-  ExtrapolationCheck extrapolation;
-  bool meets_thresholds = true;
-  std::vector<std::string> threshold_failures;  // one line per missed threshold
+  FitQuality quality;
   // The smooth measure of the worst error that the choice of t_mid minimises: the p-norm
   // (p = 16, mean over all residuals) of the normalised residuals |dCp|/(Cp thr_cp),
   // |dH|/(R T thr_h), |dS|/(R thr_s) over the whole grid. Computed for fixed t_mid too.
@@ -68,8 +64,6 @@ struct FitResult {
   // The largest normalised residual over the whole grid (1 means "exactly at a threshold").
   double max_normalised_error = 0.0;
   MidTemperatureChoice mid_choice;
-  // What the form can reach when this fit misses its thresholds (computed only then).
-  FormLimit form_limit;
 };
 
 // Fits the exact curves (docs/fitting.md). Throws Error when the request is impossible

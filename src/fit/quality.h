@@ -83,6 +83,18 @@ struct FormLimit {
   bool AtFormLimit() const { return computed && best_threshold_ratio > 1.0; }
 };
 
+// The quality of one fit: its figures per range, its behaviour outside the range, the thresholds
+// it misses and what the form could reach. One type for the fitter's result, the entry and the
+// report's assessment.
+struct FitQuality {
+  RangeQuality low_range;
+  RangeQuality high_range;
+  ExtrapolationCheck extrapolation;
+  std::vector<std::string> threshold_failures;  // one line per missed threshold
+  FormLimit form_limit;
+  bool MeetsThresholds() const { return threshold_failures.empty(); }
+};
+
 // Errors of the coefficients `a` against exact points [begin, end) of `exact`.
 // An empty range gives all zeros.
 RangeQuality MeasureRangeQuality(const NasaCoefficients& a, const ExactCurves& exact,

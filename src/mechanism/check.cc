@@ -134,15 +134,15 @@ std::vector<std::string> DataDifferences(const Entry& committed, const Entry& re
 
 // The fit-fails finding of a species, if any.
 std::optional<std::string> FitFailure(const Entry* committed, const SpeciesFit& regenerated) {
-  const bool committed_fails = committed != nullptr && !committed->quality.meets_thresholds;
-  const bool regenerated_fails = !regenerated.fit.meets_thresholds;
+  const bool committed_fails = committed != nullptr && !committed->quality.MeetsThresholds();
+  const bool regenerated_fails = !regenerated.fit.quality.MeetsThresholds();
   if (regenerated_fails && committed_fails) {
     return "fit misses its quality thresholds (committed entry and regeneration): " +
-           JoinLines(regenerated.fit.threshold_failures);
+           JoinLines(regenerated.fit.quality.threshold_failures);
   }
   if (regenerated_fails) {
     return "regenerated fit misses its quality thresholds: " +
-           JoinLines(regenerated.fit.threshold_failures);
+           JoinLines(regenerated.fit.quality.threshold_failures);
   }
   if (committed_fails) {
     return "committed entry has verdict fail: " + JoinLines(committed->quality.threshold_failures);

@@ -123,11 +123,7 @@ Entry MakeEntry(const SpeciesFit& result, const RegenerateOptions& options) {
   entry.polynomial = result.fit.polynomial;
   entry.formation_enthalpy_j_per_mol = species.formation_enthalpy_j_per_mol;
   entry.reference_pressure_pa = species.standard_pressure_pa;
-  entry.quality.low_range = result.fit.low_range;
-  entry.quality.high_range = result.fit.high_range;
-  entry.quality.extrapolation = result.fit.extrapolation;
-  entry.quality.meets_thresholds = result.fit.meets_thresholds;
-  entry.quality.threshold_failures = result.fit.threshold_failures;
+  entry.quality = result.fit.quality;
   entry.provenance.input_sha256 = species.input_digest;
   entry.provenance.tool_version = SEVENFOLD_VERSION;
   entry.provenance.model_options = ModelDescription(species, FitOptionsFor(species, options));

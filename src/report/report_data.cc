@@ -174,14 +174,14 @@ SpeciesReport AnalyseSpecies(const ReportSpeciesInput& in, const ReportOptions& 
         "the entry's input digest differs from the species data now: the entry was made from "
         "other data (stale, or another model)");
   }
-  if (in.entry.quality.meets_thresholds != report.fit.meets_thresholds) {
+  if (in.entry.quality.MeetsThresholds() != report.fit.quality.MeetsThresholds()) {
     report.notes.push_back(fmt::format(
         "the entry records the verdict '{}' but measured against the species data now it {}",
-        in.entry.quality.meets_thresholds ? "pass" : "fail",
-        report.fit.meets_thresholds ? "passes" : "fails"));
+        in.entry.quality.MeetsThresholds() ? "pass" : "fail",
+        report.fit.quality.MeetsThresholds() ? "passes" : "fails"));
   }
-  if (!report.fit.extrapolation.sane) {
-    report.notes.push_back("extrapolation: " + report.fit.extrapolation.message);
+  if (!report.fit.quality.extrapolation.sane) {
+    report.notes.push_back("extrapolation: " + report.fit.quality.extrapolation.message);
   }
   const double plot_low = kPlotLowFactor * p.t_low_k, plot_high = kPlotHighFactor * p.t_high_k;
   if (plot_low < kMinTemperatureK || plot_high > kMaxTemperatureK) {
@@ -197,13 +197,13 @@ SpeciesReport AnalyseSpecies(const ReportSpeciesInput& in, const ReportOptions& 
 
 int ReportData::NumFailing() const {
   return static_cast<int>(std::count_if(species.begin(), species.end(), [](const SpeciesReport& s) {
-    return !s.fit.meets_thresholds;
+    return !s.fit.quality.MeetsThresholds();
   }));
 }
 
 int ReportData::NumExtrapolationWarnings() const {
   return static_cast<int>(std::count_if(species.begin(), species.end(), [](const SpeciesReport& s) {
-    return !s.fit.extrapolation.sane;
+    return !s.fit.quality.extrapolation.sane;
   }));
 }
 
@@ -228,14 +228,13 @@ EntryAssessment AssessEntryWith(const SpeciesThermo& thermo,
 
   EntryAssessment a;
   a.polynomial = p;
-  a.low_range = MeasureRangeQuality(p.low, exact, 0, split);
-  a.high_range = MeasureRangeQuality(p.high, exact, split, exact.t_k.size());
-  a.threshold_failures = ThresholdFailures(a.low_range, a.high_range, species.thresholds);
-  a.meets_thresholds = a.threshold_failures.empty();
+  a.quality.low_range = MeasureRangeQuality(p.low, exact, 0, split);
+  a.quality.high_range = MeasureRangeQuality(p.high, exact, split, exact.t_k.size());
+  a.quality.threshold_failures = ThresholdFailures(a.quality.low_range, a.quality.high_range, species.thresholds);
   const QualityThresholds& thr = species.thresholds;
   for (const auto& [name, q] :
-       {std::pair<const char*, const RangeQuality*>{"low", &a.low_range},
-        std::pair<const char*, const RangeQuality*>{"high", &a.high_range}}) {
+       {std::pair<const char*, const RangeQuality*>{"low", &a.quality.low_range},
+        std::pair<const char*, const RangeQuality*>{"high", &a.quality.high_range}}) {
     if (q->num_points == 0) continue;
     ConsiderWorst(
         a.worst, "cp", name, q->max_cp_relative, thr.max_cp_relative, q->max_cp_error_t_k);
@@ -244,7 +243,7 @@ EntryAssessment AssessEntryWith(const SpeciesThermo& thermo,
   }
   a.max_normalised_error = a.worst.normalised;
   // The same sane band as the fitter's (fit/fitter.cc): classical limit of the species' atoms.
-  a.extrapolation =
+  a.quality.extrapolation =
       CheckExtrapolation(p, ClassicalLimitCpOverR(species.NumAtoms()) + kExtrapolationUpperMargin);
   return a;
 }

@@ -49,11 +49,7 @@ struct WorstFigure {
 // An entry measured against the exact curves on the fit grid of its own temperature range.
 struct EntryAssessment {
   TwoRangePolynomial polynomial;
-  RangeQuality low_range;
-  RangeQuality high_range;
-  ExtrapolationCheck extrapolation;
-  bool meets_thresholds = true;
-  std::vector<std::string> threshold_failures;  // as ThresholdFailures (fit/fitter.h)
+  FitQuality quality;  // threshold_failures as ThresholdFailures (fit/fitter.h)
   double max_normalised_error = 0.0;            // largest figure / threshold over Cp, H, S
   WorstFigure worst;
 };

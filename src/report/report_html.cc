@@ -300,7 +300,7 @@ std::string SpeciesSection(const SpeciesReport& s, int rank) {
   html += fmt::format(
       "<section class=\"species\" id=\"s{}\" data-species=\"{}\">\n", rank, EscapeXml(s.name));
   html += fmt::format(
-      "<h2>{}. {} {}</h2>\n", rank, EscapeXml(s.name), VerdictBadge(s.fit.meets_thresholds));
+      "<h2>{}. {} {}</h2>\n", rank, EscapeXml(s.name), VerdictBadge(s.fit.quality.MeetsThresholds()));
   html += "<dl class=\"facts\">\n";
   html += fmt::format("<dt>species data</dt><dd><code>{}</code></dd>\n", EscapeXml(s.source));
   html +=
@@ -323,17 +323,17 @@ std::string SpeciesSection(const SpeciesReport& s, int rank) {
                       WorstText(s.fit.worst));
   html += fmt::format(
       "<dt>extrapolation</dt><dd>Cp/R {} to {} below T_low, {} to {} above T_high: {}</dd>\n",
-      Num(s.fit.extrapolation.min_cp_over_r_below, 3),
-      Num(s.fit.extrapolation.max_cp_over_r_below, 3),
-      Num(s.fit.extrapolation.min_cp_over_r_above, 3),
-      Num(s.fit.extrapolation.max_cp_over_r_above, 3),
-      s.fit.extrapolation.sane ? "inside the sane band" : "<strong>outside the sane band</strong>");
+      Num(s.fit.quality.extrapolation.min_cp_over_r_below, 3),
+      Num(s.fit.quality.extrapolation.max_cp_over_r_below, 3),
+      Num(s.fit.quality.extrapolation.min_cp_over_r_above, 3),
+      Num(s.fit.quality.extrapolation.max_cp_over_r_above, 3),
+      s.fit.quality.extrapolation.sane ? "inside the sane band" : "<strong>outside the sane band</strong>");
   if (!s.model.empty()) html += fmt::format("<dt>model</dt><dd>{}</dd>\n", EscapeXml(s.model));
   html += fmt::format("<dt>input digest</dt><dd><code>{}</code></dd>\n", EscapeXml(s.input_sha256));
   html += "</dl>\n";
-  if (!s.fit.threshold_failures.empty()) {
+  if (!s.fit.quality.threshold_failures.empty()) {
     html += "<ul class=\"failures\">\n";
-    for (const std::string& f : s.fit.threshold_failures) html += "<li>" + EscapeXml(f) + "</li>\n";
+    for (const std::string& f : s.fit.quality.threshold_failures) html += "<li>" + EscapeXml(f) + "</li>\n";
     html += "</ul>\n";
   }
   if (!s.notes.empty()) {
@@ -350,12 +350,12 @@ std::string SpeciesSection(const SpeciesReport& s, int rank) {
     html += fmt::format(
         "<tr class=\"species-start\"><td class=\"name\" rowspan=\"2\">{}</td><td>low</td>{}</tr>\n",
         label,
-        RangeCells(a.low_range, s.thresholds));
-    html += fmt::format("<tr><td>high</td>{}</tr>\n", RangeCells(a.high_range, s.thresholds));
+        RangeCells(a.quality.low_range, s.thresholds));
+    html += fmt::format("<tr><td>high</td>{}</tr>\n", RangeCells(a.quality.high_range, s.thresholds));
   };
   rows("fit", s.fit);
   if (s.baseline) {
-    rows(s.baseline->meets_thresholds ? "baseline (pass)" : "baseline (FAIL)", *s.baseline);
+    rows(s.baseline->quality.MeetsThresholds() ? "baseline (pass)" : "baseline (FAIL)", *s.baseline);
   }
   html += "</tbody></table>\n";
   html += "<div class=\"panels\">\n";
@@ -453,7 +453,7 @@ std::string FormatReportHtml(const ReportData& data) {
     if (has_baseline) {
       baseline_cell = s.baseline ? fmt::format("<td rowspan=\"2\">{}{}</td>",
                                                Num(s.baseline->max_normalised_error, 2),
-                                               s.baseline->meets_thresholds ? "" : " FAIL")
+                                               s.baseline->quality.MeetsThresholds() ? "" : " FAIL")
                                  : "<td rowspan=\"2\">none</td>";
     }
     html += fmt::format(
@@ -464,15 +464,15 @@ std::string FormatReportHtml(const ReportData& data) {
         rank,
         rank,
         EscapeXml(s.name),
-        VerdictBadge(s.fit.meets_thresholds),
+        VerdictBadge(s.fit.quality.MeetsThresholds()),
         Num(s.fit.max_normalised_error, 2),
         s.fit.worst.quantity.empty()
             ? "n/a"
             : fmt::format("{} {} K", QuantityName(s.fit.worst.quantity), Kelvin(s.fit.worst.t_k)),
-        RangeCells(s.fit.low_range, s.thresholds),
+        RangeCells(s.fit.quality.low_range, s.thresholds),
         Kelvin(s.fit.polynomial.t_mid_k),
         baseline_cell);
-    html += fmt::format("<tr><td>high</td>{}</tr>\n", RangeCells(s.fit.high_range, s.thresholds));
+    html += fmt::format("<tr><td>high</td>{}</tr>\n", RangeCells(s.fit.quality.high_range, s.thresholds));
   }
   html += "</tbody></table></div>\n</section>\n";
 

@@ -114,8 +114,8 @@ std::string JsonAssessment(const EntryAssessment& a, const std::string& indent) 
   const std::string in = indent + "  ";
   const TwoRangePolynomial& p = a.polynomial;
   std::string out = "{\n";
-  out += in + "\"verdict\": " + JsonString(a.meets_thresholds ? "pass" : "fail") + ",\n";
-  out += in + "\"failures\": " + JsonStrings(a.threshold_failures) + ",\n";
+  out += in + "\"verdict\": " + JsonString(a.quality.MeetsThresholds() ? "pass" : "fail") + ",\n";
+  out += in + "\"failures\": " + JsonStrings(a.quality.threshold_failures) + ",\n";
   out += in + "\"max_normalised_error\": " + JsonNumber(a.max_normalised_error) + ",\n";
   if (a.worst.quantity.empty()) {
     out += in + "\"worst\": null,\n";
@@ -133,10 +133,10 @@ std::string JsonAssessment(const EntryAssessment& a, const std::string& indent) 
                           JsonNumber(p.t_mid_k),
                           JsonNumber(p.t_high_k));
   out += in + "\"ranges\": {\n";
-  out += in + "  \"low\": " + JsonRange(a.low_range, in + "  ") + ",\n";
-  out += in + "  \"high\": " + JsonRange(a.high_range, in + "  ") + "\n";
+  out += in + "  \"low\": " + JsonRange(a.quality.low_range, in + "  ") + ",\n";
+  out += in + "  \"high\": " + JsonRange(a.quality.high_range, in + "  ") + "\n";
   out += in + "},\n";
-  const ExtrapolationCheck& e = a.extrapolation;
+  const ExtrapolationCheck& e = a.quality.extrapolation;
   out += in + fmt::format(
                   "\"extrapolation\": {{\"sane\": {}, \"below\": {{\"min_cp_over_r\": {}, "
                   "\"max_cp_over_r\": {}}}, \"above\": {{\"min_cp_over_r\": {}, "
@@ -171,15 +171,15 @@ std::string FormatReportMarkdown(const ReportData& data) {
     md += fmt::format(
         "| {} | {} | {} | {} | {} | {} | {} |",
         MarkdownCell(s.name),
-        a.meets_thresholds ? "pass" : "**FAIL**",
-        Fixed(100.0 * MaxOf(a.low_range.max_cp_relative, a.high_range.max_cp_relative), 3),
-        Fixed(MaxOf(a.low_range.max_h_over_rt, a.high_range.max_h_over_rt), 5),
-        Fixed(MaxOf(a.low_range.max_s_over_r, a.high_range.max_s_over_r), 5),
+        a.quality.MeetsThresholds() ? "pass" : "**FAIL**",
+        Fixed(100.0 * MaxOf(a.quality.low_range.max_cp_relative, a.quality.high_range.max_cp_relative), 3),
+        Fixed(MaxOf(a.quality.low_range.max_h_over_rt, a.quality.high_range.max_h_over_rt), 5),
+        Fixed(MaxOf(a.quality.low_range.max_s_over_r, a.quality.high_range.max_s_over_r), 5),
         fmt::format("{:g}", a.polynomial.t_mid_k),
         a.worst.quantity.empty() ? std::string("n/a") : fmt::format("{:g}", a.worst.t_k));
     if (has_baseline) {
       md += s.baseline ? fmt::format(" {} ({} of thr.) |",
-                                     s.baseline->meets_thresholds ? "pass" : "FAIL",
+                                     s.baseline->quality.MeetsThresholds() ? "pass" : "FAIL",
                                      Fixed(s.baseline->max_normalised_error, 2))
                        : std::string(" none |");
     }
