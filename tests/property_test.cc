@@ -213,9 +213,8 @@ TEST_CASE("dH/dT equals Cp and dS/dT equals Cp/T by numerical differentiation", 
       CHECK(error_s <= kDerivativeTolerance);
     }
   }
-  // Shown with -s: how far below the tolerance the identities hold.
-  INFO("worst relative deviation: dH/dT " << worst_h << ", dS/dT " << worst_s);
-  SUCCEED();
+  // How far below the tolerance the identities hold, in the log of a run with -s.
+  WARN("worst relative deviation: dH/dT " << worst_h << ", dS/dT " << worst_s);
 }
 
 TEST_CASE("fits of generated species are continuous at T_mid to 1e-12", "[property]") {
