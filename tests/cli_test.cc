@@ -15,6 +15,7 @@
 
 #include <catch2/catch.hpp>
 
+#include "janaf_values.h"
 #include "run_binary.h"
 
 namespace {
@@ -37,11 +38,11 @@ TEST_CASE("table prints the fixed CSV header and JANAF-close values", "[cli]") {
         "species,T/K,Cp/(J/mol/K),S/(J/mol/K),H-H298/(kJ/mol),H/(kJ/mol),-(G-H298)/T/(J/mol/K)");
   double t = 0, cp = 0, s = 0, dh = 0, h = 0, g = 0;
   REQUIRE(std::sscanf(first.c_str(), "N2,%lf,%lf,%lf,%lf,%lf,%lf", &t, &cp, &s, &dh, &h, &g) == 6);
-  // JANAF 4th ed. (Chase 1998), N2 at 298.15 K: Cp 29.124, S 191.609 J/(mol K) (from memory);
-  // the rigid-rotor/harmonic model is within 0.5 % there (see statmech_test).
+  // JANAF 4th ed. (Chase 1998), N2 at 298.15 K (tests/janaf_values.h, from memory); the
+  // rigid-rotor/harmonic model is within 0.5 % there (see statmech_test).
   CHECK(t == 298.15);
-  CHECK(cp == Approx(29.124).epsilon(0.005));
-  CHECK(s == Approx(191.609).epsilon(0.005));
+  CHECK(cp == Approx(sevenfold::testing::janaf::kN2At298.cp_j_per_mol_k).epsilon(0.005));
+  CHECK(s == Approx(sevenfold::testing::janaf::kN2At298.s_j_per_mol_k).epsilon(0.005));
   CHECK(dh == 0.0);
   // -(G-H298)/T equals S at 298.15 K by definition.
   CHECK(g == Approx(s).epsilon(1e-12));

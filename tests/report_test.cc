@@ -25,6 +25,7 @@
 #include "report/report_data.h"
 #include "report/report_document.h"
 #include "report/report_svg.h"
+#include "janaf_values.h"
 #include "run_binary.h"
 #include "species/species_reader.h"
 
@@ -234,11 +235,11 @@ TEST_CASE("report plots the exact curve at the tabulated values", "[report]") {
   const auto at = std::find(t.begin(), t.end(), constants::kReferenceTemperature);
   REQUIRE(at != t.end());
   const size_t i = static_cast<size_t>(at - t.begin());
-  // JANAF 4th ed. (Chase 1998), N2 at 298.15 K: Cp 29.124, S 191.609 J/(mol K) (from memory);
-  // the rigid-rotor/harmonic model is within 0.5 % there (see statmech_test).
+  // JANAF 4th ed. (Chase 1998), N2 at 298.15 K (tests/janaf_values.h, from memory); the
+  // rigid-rotor/harmonic model is within 0.5 % there (see statmech_test).
   constexpr double kModelTolerance = 0.005;
-  CHECK(n2->curves.exact.cp_j_per_mol_k[i] == Approx(29.124).epsilon(kModelTolerance));
-  CHECK(n2->curves.exact.s_j_per_mol_k[i] == Approx(191.609).epsilon(kModelTolerance));
+  CHECK(n2->curves.exact.cp_j_per_mol_k[i] == Approx(sevenfold::testing::janaf::kN2At298.cp_j_per_mol_k).epsilon(kModelTolerance));
+  CHECK(n2->curves.exact.s_j_per_mol_k[i] == Approx(sevenfold::testing::janaf::kN2At298.s_j_per_mol_k).epsilon(kModelTolerance));
   // By definition H - H298 vanishes at 298.15 K, and -(G - H298)/T equals S there.
   CHECK(n2->curves.exact.h_minus_h298_kj_per_mol[i] == 0.0);
   CHECK(n2->curves.exact.gibbs_function_j_per_mol_k[i] == n2->curves.exact.s_j_per_mol_k[i]);

@@ -23,6 +23,7 @@
 #include "statmech/torsion.h"
 #include "statmech/translation.h"
 #include "statmech/tridiagonal.h"
+#include "janaf_values.h"
 
 namespace sevenfold {
 namespace {
@@ -80,6 +81,10 @@ struct TableValue {
   double cp;  // J/(mol K)
   double s;   // J/(mol K), 1 bar
 };
+namespace janaf = sevenfold::testing::janaf;
+TableValue Table(const sevenfold::testing::JanafValue& v) {
+  return {v.t_k, v.cp_j_per_mol_k, v.s_j_per_mol_k};
+}
 
 // JANAF Thermochemical Tables, 4th ed. (Chase 1998), ideal gas at 1 bar; values quoted to
 // 0.001 J/(mol K), from memory.
@@ -90,13 +95,13 @@ struct JanafCase {
   TableValue at_1000;
 };
 const JanafCase kJanaf[] = {
-    {"N2", Nitrogen, {298.15, 29.124, 191.609}, {1000, 32.697, 228.170}},
-    {"O2", Oxygen, {298.15, 29.376, 205.147}, {1000, 34.870, 243.578}},
-    {"CO", CarbonMonoxide, {298.15, 29.142, 197.653}, {1000, 33.183, 234.538}},
-    {"CO2", CarbonDioxide, {298.15, 37.129, 213.795}, {1000, 54.308, 269.299}},
-    {"H2O", Water, {298.15, 33.587, 188.834}, {1000, 41.268, 232.738}},
-    {"CH4", Methane, {298.15, 35.695, 186.251}, {1000, 71.795, 247.549}},
-    {"Ar", Argon, {298.15, 20.786, 154.845}, {1000, 20.786, 179.999}},
+    {"N2", Nitrogen, Table(janaf::kN2At298), Table(janaf::kN2At1000)},
+    {"O2", Oxygen, Table(janaf::kO2At298), Table(janaf::kO2At1000)},
+    {"CO", CarbonMonoxide, Table(janaf::kCOAt298), Table(janaf::kCOAt1000)},
+    {"CO2", CarbonDioxide, Table(janaf::kCO2At298), Table(janaf::kCO2At1000)},
+    {"H2O", Water, Table(janaf::kH2OAt298), Table(janaf::kH2OAt1000)},
+    {"CH4", Methane, Table(janaf::kCH4At298), Table(janaf::kCH4At1000)},
+    {"Ar", Argon, Table(janaf::kArAt298), Table(janaf::kArAt1000)},
 };
 
 // The rigid-rotor / harmonic-oscillator model misses anharmonicity, rotation-vibration coupling
@@ -494,18 +499,22 @@ Species HydrogenEquilibrium() { return HydrogenDirect(SpinMixture::kEquilibrium)
 // Target accuracy of the direct sum (the brief of this module): 0.2 % in Cp, 0.05 % in S.
 constexpr double kDirectCpTolerance = 0.002;
 constexpr double kDirectSTolerance = 0.0005;
+// REGRESSION PINS, not outside checks: the four tolerances below are our own measured misses
+// plus a margin. They keep a known shortfall from growing unnoticed; they do not show agreement
+// with the tables. (The outside check at these points is kDirectCpTolerance / kDirectSTolerance,
+// which these rows are known to miss, by the amounts stated.)
 // O2 at 3000 K: measured +0.33 % in Cp (S +0.02 %). Cause not established: the a and b states
 // add 0.8 % to Cp there, so their constants and the level cut-off near dissociation matter;
 // the JANAF O2 model details are not available to us. Tolerance: the measured miss plus margin.
-constexpr double kOxygenHotCpTolerance = 0.004;
+constexpr double kOxygenHotCpPin = 0.004;
 // H2 above 1000 K: a Dunham expansion ending at D_e J^2(J+1)^2 bends the high-J ladder of a
 // light, non-rigid molecule down towards its turning point (B^2/4D ~ 18700 cm^-1 for v=0):
 // levels crowd there and Cp comes out high, +1.0 % at 2000 K and +2.9 % at 3000 K (S +0.07 %,
 // +0.20 %). Real H2 needs the sextic H_v and v-dependent D_v, which the schema does not carry.
-constexpr double kHydrogen2000CpTolerance = 0.012;
-constexpr double kHydrogen3000CpTolerance = 0.035;
-constexpr double kHydrogen2000STolerance = 0.001;
-constexpr double kHydrogen3000STolerance = 0.0025;
+constexpr double kHydrogen2000CpPin = 0.012;
+constexpr double kHydrogen3000CpPin = 0.035;
+constexpr double kHydrogen2000SPin = 0.001;
+constexpr double kHydrogen3000SPin = 0.0025;
 
 struct DirectRow {
   double t_k;
@@ -514,6 +523,9 @@ struct DirectRow {
   double cp_tolerance = kDirectCpTolerance;
   double s_tolerance = kDirectSTolerance;
 };
+DirectRow Row(const sevenfold::testing::JanafValue& v) {
+  return {v.t_k, v.cp_j_per_mol_k, v.s_j_per_mol_k};
+}
 struct DirectCase {
   const char* name;
   Species (*make)();
@@ -527,20 +539,21 @@ struct DirectCase {
 const std::vector<DirectCase>& DirectCases() {
   static const std::vector<DirectCase> cases = {
       {"N2", NitrogenDirect,
-       {{100, 29.104, 159.811}, {298.15, 29.124, 191.609}, {500, 29.580, 206.739},
-        {1000, 32.697, 228.170}, {2000, 35.971, 252.074}, {3000, 37.028, 266.891}}},
+       {{100, 29.104, 159.811},
+        Row(janaf::kN2At298), {500, 29.580, 206.739}, Row(janaf::kN2At1000),
+        {2000, 35.971, 252.074}, {3000, 37.028, 266.891}}},
       {"CO", CarbonMonoxideDirect,
-       {{100, 29.104, 165.850}, {298.15, 29.142, 197.653}, {500, 29.794, 212.831},
-        {1000, 33.183, 234.538}, {2000, 36.250, 258.714}, {3000, 37.217, 273.605}}},
+       {{100, 29.104, 165.850}, Row(janaf::kCOAt298), {500, 29.794, 212.831}, Row(janaf::kCOAt1000),
+        {2000, 36.250, 258.714}, {3000, 37.217, 273.605}}},
       {"O2", OxygenDirect,
-       {{100, 29.106, 173.307}, {298.15, 29.376, 205.147}, {500, 31.091, 220.693},
-        {1000, 34.870, 243.578}, {2000, 37.741, 268.748},
-        {3000, 39.884, 284.466, kOxygenHotCpTolerance}}},
+       {{100, 29.106, 173.307}, Row(janaf::kO2At298), {500, 31.091, 220.693},
+        Row(janaf::kO2At1000), {2000, 37.741, 268.748},
+        {3000, 39.884, 284.466, kOxygenHotCpPin}}},
       {"H2", HydrogenEquilibrium,
        {{100, 28.154, 100.727}, {200, 27.447, 119.412}, {298.15, 28.836, 130.680},
         {500, 29.260, 145.737}, {1000, 30.205, 166.216},
-        {2000, 34.280, 188.418, kHydrogen2000CpTolerance, kHydrogen2000STolerance},
-        {3000, 37.087, 202.891, kHydrogen3000CpTolerance, kHydrogen3000STolerance}}},
+        {2000, 34.280, 188.418, kHydrogen2000CpPin, kHydrogen2000SPin},
+        {3000, 37.087, 202.891, kHydrogen3000CpPin, kHydrogen3000SPin}}},
   };
   return cases;
 }
@@ -569,7 +582,7 @@ TEST_CASE("direct sum is closer to JANAF than the rigid-rotor harmonic model at 
   // rotation-vibration coupling are what the direct sum adds.
   const std::pair<Species (*)(), Species (*)()> pairs[] = {{NitrogenDirect, Nitrogen},
                                                            {CarbonMonoxideDirect, CarbonMonoxide}};
-  const double janaf_cp[] = {32.697, 33.183};
+  const double janaf_cp[] = {janaf::kN2At1000.cp_j_per_mol_k, janaf::kCOAt1000.cp_j_per_mol_k};
   for (int i = 0; i < 2; ++i) {
     const double direct = SpeciesThermo(pairs[i].first()).At(1000.0).cp_j_per_mol_k;
     const double rigid = SpeciesThermo(pairs[i].second()).At(1000.0).cp_j_per_mol_k;
