@@ -30,6 +30,11 @@ inline constexpr double kStandardPressureBar = 1.0e5;  // Pa
 inline constexpr double kStandardPressureAtm = 101325.0;  // Pa, exact by definition
 // Reference temperature of formation enthalpies.
 inline constexpr double kReferenceTemperature = 298.15;  // K
+// The lowest and highest temperatures the exact engine accepts, K: below 10 K an ideal gas is
+// no model of anything we fit; above 20,000 K ionisation, which the engine does not model,
+// dominates. The species reader, the engine and the checks all use these two.
+inline constexpr double kMinTemperatureK = 10.0;
+inline constexpr double kMaxTemperatureK = 20000.0;
 // Thermochemical calorie, exact by definition.
 inline constexpr double kCalorie = 4.184;  // J
 

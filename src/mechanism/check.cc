@@ -11,6 +11,8 @@
 
 #include <fmt/format.h>
 
+#include "core/constants.h"
+
 namespace sevenfold {
 
 std::string ToString(FindingKind kind) {
@@ -30,7 +32,6 @@ std::string ToString(FindingKind kind) {
 
 namespace {
 
-constexpr double kReferenceTemperatureK = 298.15;
 
 // Keeps the larger of `value` and `*max`, with its temperature (the first one on ties).
 void KeepMax(double value, double t_k, double* max, double* max_t_k) {
@@ -211,7 +212,7 @@ CurveDifference CompareCurves(const TwoRangePolynomial& committed,
                                                        : t_low_k * std::exp(log_ratio * i /
                                                                              (kNumCurveSamples - 1)));
   }
-  for (const double t : {kReferenceTemperatureK, committed.t_mid_k, reference.t_mid_k}) {
+  for (const double t : {constants::kReferenceTemperature, committed.t_mid_k, reference.t_mid_k}) {
     if (t > t_low_k && t < t_high_k) temperatures.push_back(t);
   }
   std::sort(temperatures.begin(), temperatures.end());

@@ -11,7 +11,6 @@
 
 #include "core/constants.h"
 #include "core/error.h"
-#include "statmech/species_thermo.h"
 #include "statmech/tridiagonal.h"
 
 namespace sevenfold {
@@ -83,7 +82,7 @@ RotorContribution RotorContribution::Linear(double b_cm1, double symmetry_number
   if (d_k > 0.0) {
     // The distortion term grows with T, so no decaying tail exists: sum explicitly everywhere.
     rotor.switch_t_k_ = std::numeric_limits<double>::infinity();
-    const double energy_cut = options.level_cut_factor * kMaxTemperatureK;
+    const double energy_cut = options.level_cut_factor * constants::kMaxTemperatureK;
     const double turning_jj = theta / (2.0 * d_k);
     for (int j = 0;; ++j) {
       const double jj = static_cast<double>(j) * (j + 1);
@@ -131,7 +130,7 @@ RotorContribution RotorContribution::Nonlinear(const std::array<double, 3>& abc_
     rotor.switch_t_k_ = -1.0;  // no explicit sum at any temperature
     rotor.hybrid_b_k_ = std::sqrt(b * c);
     const double hb = rotor.hybrid_b_k_;
-    const double energy_cut = options.level_cut_factor * kMaxTemperatureK;
+    const double energy_cut = options.level_cut_factor * constants::kMaxTemperatureK;
     for (int k = 0; a * k * k <= energy_cut; ++k) {
       KTerm term;
       term.degeneracy = k == 0 ? 1.0 : 2.0;

@@ -5,22 +5,15 @@
 #include <memory>
 #include <vector>
 
+#include "core/constants.h"
 #include "species/species.h"
+#include "statmech/thermo_point.h"
 
 namespace sevenfold {
 
-// One row of an exact table. SI per mole; entropy at the species' standard pressure.
-struct ThermoPoint {
-  double t_k = 0.0;
-  double cp_j_per_mol_k = 0.0;
-  double s_j_per_mol_k = 0.0;
-  double h_minus_h298_j_per_mol = 0.0;  // H(T) - H(298.15 K)
-  double h_j_per_mol = 0.0;             // dfH(298.15 K) + H(T) - H(298.15 K)
-};
-
-// The lowest and highest temperatures the engine accepts, kelvin.
-inline constexpr double kMinTemperatureK = 10.0;
-inline constexpr double kMaxTemperatureK = 20000.0;
+// The engine's temperature limits, in core/constants.h, under their old names here.
+using constants::kMaxTemperatureK;
+using constants::kMinTemperatureK;
 
 // Exact thermodynamic functions of one species: sums of the contributions of translation,
 // electronic levels, rotation (with nuclear-spin statistics when given), vibration, hindered

@@ -11,13 +11,12 @@
 
 #include "core/constants.h"
 #include "core/error.h"
-#include "statmech/species_thermo.h"
 #include "statmech/tridiagonal.h"
 
 namespace sevenfold {
 namespace {
 
-static_assert(TorsionOptions{}.top_temperature_k == kMaxTemperatureK,
+static_assert(TorsionOptions{}.top_temperature_k == constants::kMaxTemperatureK,
               "torsion.h restates the engine's top temperature");
 
 // Points for the range of V(phi): the cosine series has at most a few dozen terms, so 4096
@@ -172,7 +171,7 @@ TorsionContribution::TorsionContribution(double theta_k, int symmetry,
 
   // Sum explicitly up to the top of the engine's range if the basis this needs is affordable;
   // otherwise lower the top to what the capped basis converges, and hand over to the tail there.
-  double top_t = std::min(options.top_temperature_k, kMaxTemperatureK);
+  double top_t = std::min(options.top_temperature_k, constants::kMaxTemperatureK);
   double switch_t = std::numeric_limits<double>::infinity();
   // Leave room for the convergence rounds, which grow the basis by a quarter each.
   const int affordable_m = static_cast<int>(cap_m / 1.6);
