@@ -8,7 +8,9 @@ packages=(g++ cmake make pkg-config libeigen3-dev libceres-dev libcli11-dev liby
 if [[ "${1:-}" == "--tests" ]]; then
   # catch2: the unit-test framework; python3-ase: the reference library the engine is checked against;
   # chromium: renders the report's HTML page headless, to check that a real browser draws every plot.
-  packages+=(catch2 python3-ase chromium)
+  # pybind11-dev, python3-dev, python3-numpy: the Python module (docs/python.md), built by the
+  # test command; python3-pytest runs its tests.
+  packages+=(catch2 python3-ase chromium pybind11-dev python3-pybind11 python3-dev python3-numpy python3-pytest)
 fi
 
 missing=()

@@ -83,40 +83,7 @@ void AddObjectiveOptions(CLI::App& command, std::string& objective, std::string&
 
 RegenerateOptions MakeRegenerateOptions(const std::string& mid, const std::string& objective,
                                         const std::string& guard, int num_jobs) {
-  RegenerateOptions options;
-  options.num_jobs = num_jobs;
-  if (!objective.empty()) {
-    options.objective_override = ParseFitObjective(objective);
-    if (!options.objective_override) {
-      throw Error(fmt::format("--objective {}: expected 'minimax' or 'least-squares'", objective));
-    }
-  }
-  if (!guard.empty()) {
-    options.extrapolation_guard_override = ParseExtrapolationGuard(guard);
-    if (!options.extrapolation_guard_override) {
-      throw Error(fmt::format(
-          "--extrapolation-guard {}: expected 'off' or FACTOR:BAND with 1 < FACTOR <= 4 and "
-          "0 < BAND <= 1, e.g. 1.25:0.2",
-          guard));
-    }
-  }
-  if (mid == "auto") {
-    options.force_auto_mid = true;
-  } else if (!mid.empty()) {
-    double value = 0.0;
-    size_t used = 0;
-    try {
-      value = std::stod(mid, &used);
-    } catch (const std::exception&) {
-      used = 0;
-    }
-    if (used != mid.size() || !(value >= kMinTemperatureK && value <= kMaxTemperatureK)) {
-      throw Error(fmt::format("--mid {}: expected 'auto' or a temperature in K within [{}, {}]",
-                              mid, kMinTemperatureK, kMaxTemperatureK));
-    }
-    options.t_mid_override_k = value;
-  }
-  return options;
+  return ParseRegenerateOptions(mid, objective, guard, num_jobs);
 }
 
 int ReportPoorFits(const std::vector<SpeciesFit>& results, bool allow_poor_fits) {

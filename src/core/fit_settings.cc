@@ -1,29 +1,11 @@
 // SPDX-License-Identifier: MIT
 #include "core/fit_settings.h"
 
-#include <cerrno>
-#include <cmath>
-#include <cstdlib>
-
 #include <fmt/format.h>
 
+#include "core/units.h"
+
 namespace sevenfold {
-namespace {
-
-// A plain decimal number filling the whole of `text` (no sign, no hex, no spaces).
-std::optional<double> ParsePlainNumber(const std::string& text) {
-  if (text.empty() || text.find_first_not_of("0123456789.eE+-") != std::string::npos) {
-    return std::nullopt;
-  }
-  if (!(text[0] >= '0' && text[0] <= '9') && text[0] != '.') return std::nullopt;
-  errno = 0;
-  char* end = nullptr;
-  const double value = std::strtod(text.c_str(), &end);
-  if (errno != 0 || end != text.c_str() + text.size() || !std::isfinite(value)) return std::nullopt;
-  return value;
-}
-
-}  // namespace
 
 std::string ToString(FitObjective objective) {
   switch (objective) {

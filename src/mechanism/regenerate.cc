@@ -8,11 +8,46 @@
 #include "core/constants.h"
 #include "core/error.h"
 #include "core/parallel.h"
+#include "core/units.h"
 #include "statmech/species_thermo.h"
 
 namespace sevenfold {
 
 using constants::kGasConstant;
+
+RegenerateOptions ParseRegenerateOptions(const std::string& mid, const std::string& objective,
+                                         const std::string& guard, int num_jobs) {
+  RegenerateOptions options;
+  options.num_jobs = num_jobs;
+  if (!objective.empty()) {
+    options.objective_override = ParseFitObjective(objective);
+    if (!options.objective_override) {
+      throw Error(fmt::format("--objective {}: expected 'minimax' or 'least-squares'", objective));
+    }
+  }
+  if (!guard.empty()) {
+    options.extrapolation_guard_override = ParseExtrapolationGuard(guard);
+    if (!options.extrapolation_guard_override || guard.find_first_of(" \t") != std::string::npos) {
+      throw Error(fmt::format(
+          "--extrapolation-guard {}: expected 'off' or FACTOR:BAND with 1 < FACTOR <= 4 and "
+          "0 < BAND <= 1, e.g. 1.25:0.2",
+          guard));
+    }
+  }
+  if (mid == "auto") {
+    options.force_auto_mid = true;
+  } else if (!mid.empty()) {
+    // A plain decimal and nothing else: no spaces, no hexadecimal (" 1000" and "0x3e8" refused).
+    const std::optional<double> value =
+        mid.find_first_of(" \t\r\n") == std::string::npos ? ParsePlainNumber(mid) : std::nullopt;
+    if (!value || !(*value >= constants::kMinTemperatureK && *value <= constants::kMaxTemperatureK)) {
+      throw Error(fmt::format("--mid {}: expected 'auto' or a temperature in K within [{}, {}]",
+                              mid, constants::kMinTemperatureK, constants::kMaxTemperatureK));
+    }
+    options.t_mid_override_k = *value;
+  }
+  return options;
+}
 
 FitOptions FitOptionsFor(const Species& species, const RegenerateOptions& options) {
   FitOptions fit_options;

@@ -30,6 +30,12 @@ struct RegenerateOptions {
   std::function<void(int num_done, int num_total)> progress;
 };
 
+// Regeneration options from the text of the command line's --mid, --objective,
+// --extrapolation-guard (each "" for "each species' own setting") and --jobs; the library's Fit
+// takes the same strings. Throws Error naming the option, the value and what was expected.
+RegenerateOptions ParseRegenerateOptions(const std::string& mid, const std::string& objective,
+                                         const std::string& guard, int num_jobs);
+
 // One species' result: the exact curves on the fit grid and the fit.
 struct SpeciesFit {
   const Species* species = nullptr;  // points into the caller's vector
