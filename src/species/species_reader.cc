@@ -16,6 +16,7 @@
 #include <map>
 #include <optional>
 #include <tuple>
+#include <string_view>
 #include <utility>
 
 #include "core/constants.h"
@@ -23,6 +24,7 @@
 #include "core/elements.h"
 #include "core/parallel.h"
 #include "core/units.h"
+#include "species/formula.h"
 #include "species/geometry.h"
 
 namespace sevenfold {
@@ -67,9 +69,6 @@ constexpr double kMaxCentrifugalToRotational = 1.0e-2;
 // Degeneracies (electronic levels, nuclear-spin weights): lumped atomic manifolds reach a few
 // hundred (common practice).
 constexpr double kMaxDegeneracy = 1.0e6;
-// Atoms of one element in a species: gas-phase species in mechanisms have tens (common practice);
-// the bound keeps 3N-6 and the atom total far from integer overflow.
-constexpr int kMaxAtomCount = 1000;
 // |formation enthalpy|, J/mol: gas-phase ions of light elements reach about 1e4 kJ/mol
 // (He2+: 7.6e3 kJ/mol from its ionisation energies, from memory).
 constexpr double kMaxFormationEnthalpyJPerMol = 1.0e8;
@@ -79,37 +78,42 @@ constexpr double kMaxTorsionBarrierJPerMol = 1.0e6;
 // |coordinate| in a geometry, angstrom: molecules are nanometres across.
 constexpr double kMaxCoordinateAngstrom = 1.0e3;
 
-const std::vector<std::string> kTopKeys = {"defaults", "species"};
-const std::vector<std::string> kDefaultsKeys = {"temperatures", "pressure", "fit-thresholds"};
-const std::vector<std::string> kSpeciesKeys = {"name",
-                                               "composition",
-                                               "charge",
+// The first key of every species file: the format's name, with the layout version as its value.
+constexpr std::string_view kFormatKey = "sevenfold-species";
+constexpr int kFormatVersion = 2;
+// Tells the reader of a file in an older layout how to convert it.
+constexpr const char* kUpgradeHint =
+    "convert the file with scripts/upgrade-species-file.py (docs/species-schema.md)";
+
+const std::vector<std::string> kTopKeys = {std::string(kFormatKey), "defaults", "species"};
+const std::vector<std::string> kDefaultsKeys = {"fit-temperatures", "standard-pressure", "fit-thresholds"};
+const std::vector<std::string> kSpeciesKeys = {"formula",
                                                "formation-enthalpy",
                                                "shape",
                                                "symmetry-number",
                                                "rotational-constants",
                                                "moments-of-inertia",
-                                               "geometry",
+                                               "structure",
                                                "vibrations",
                                                "frequency-scale",
                                                "electronic-levels",
                                                "optical-isomers",
                                                "centrifugal-distortion",
-                                               "temperatures",
-                                               "pressure",
+                                               "fit-temperatures",
+                                               "standard-pressure",
                                                "fit-thresholds",
-                                               "diatomic-constants",
-                                               "nuclear-spin",
-                                               "torsions"};
+                                               "rovibrational-constants",
+                                               "spin-statistics",
+                                               "hindered-rotors"};
 const std::vector<std::string> kTemperatureKeys = {"low", "mid", "high"};
 const std::vector<std::string> kThresholdKeys = {"cp", "enthalpy", "entropy"};
 const std::vector<std::string> kDiatomicKeys = {
-    "we", "wexe", "weye", "Be", "alphae", "gammae", "De", "dissociation"};
+    "we", "wexe", "weye", "Be", "alphae", "gammae", "De", "dissociation-energy"};
 const std::vector<std::string> kDiatomicStateKeys = {
-    "energy", "degeneracy", "we", "wexe", "weye", "Be", "alphae", "gammae", "De", "dissociation"};
-const std::vector<std::string> kNuclearSpinKeys = {"even", "odd", "mixture"};
+    "energy", "degeneracy", "we", "wexe", "weye", "Be", "alphae", "gammae", "De", "dissociation-energy"};
+const std::vector<std::string> kNuclearSpinKeys = {"even-j", "odd-j", "mixture"};
 const std::vector<std::string> kTorsionKeys = {
-    "replaces", "reduced-moment", "rotational-constant", "symmetry", "barrier", "fourier"};
+    "replaces", "reduced-moment", "rotational-constant", "symmetry-number", "barrier-height", "cosine-terms"};
 
 std::string JoinWords(const std::vector<std::string>& words) {
   std::string text;
@@ -132,12 +136,7 @@ std::string NumberList(const std::vector<double>& values, const char* format = "
 }
 
 std::string CompositionText(const std::map<std::string, int>& counts) {
-  std::string text = "{";
-  for (const auto& [symbol, count] : counts) {
-    if (text.size() > 1) text += ", ";
-    text += symbol + ": " + std::to_string(count);
-  }
-  return text + "}";
+  return FormatFormula(std::vector<std::pair<std::string, int>>(counts.begin(), counts.end()), 0);
 }
 
 // What a node holds, for "what was found" in messages.
@@ -491,7 +490,8 @@ std::optional<SpeciesItemsSplit> SplitSpeciesItems(const std::string& text) {
     while (first < end && text[first] == ' ') ++first;
     if (first == end || text[first] == '#') continue;  // blank or comment: no effect on the split
     const std::size_t indent = first - begin;
-    const bool item_start = text[first] == '-' && (first + 1 == end || text[first + 1] == ' ');
+    // An item is a label key of the species map: a line at the items' indentation.
+    const bool item_start = indent > 0 && text[first] != '-';
     const int depth_before = depth;
     if (!ScanLineForSplit(text, first, end, &depth)) return std::nullopt;
     if (phase != Phase::kTop) {
@@ -517,6 +517,9 @@ std::optional<SpeciesItemsSplit> SplitSpeciesItems(const std::string& text) {
       continue;
     }
     seen_content = true;
+    if (text.compare(first, kFormatKey.size() + 1, std::string(kFormatKey) + ":") == 0) {
+      continue;  // the format key: its value is checked when the skeleton is read
+    }
     if (text.compare(first, 8, "species:") == 0) {
       if (seen_species || !OnlyComment(text, first + 8, end)) return std::nullopt;
       seen_species = in_top_key = true;
@@ -611,13 +614,17 @@ class FileParser {
   }
 
   std::optional<Defaults> ReadDefaults(const YAML::Node& node);
+  // True when `root` is a map whose first key is the format key with the supported version;
+  // else records why (also: a file of the first layout, with the way to convert it).
+  bool CheckFormat(const YAML::Node& root);
   bool ReadTemperatures(const YAML::Node& value, const std::string& key, TemperatureRanges* ranges);
   bool ReadThresholds(const YAML::Node& value,
                       const std::string& key,
                       QualityThresholds* thresholds);
   std::optional<double> ReadStandardPressure(const YAML::Node& value, const std::string& key);
 
-  std::optional<Species> ReadSpecies(const YAML::Node& node,
+  std::optional<Species> ReadSpecies(const YAML::Node& label_node,
+                                     const YAML::Node& node,
                                      int index,
                                      const Defaults& defaults,
                                      std::vector<NameRecord>* names);
@@ -626,15 +633,15 @@ class FileParser {
                                                  int num_jobs,
                                                  std::vector<NameRecord>* names);
   std::vector<Species> ParseWholeDocument(std::vector<NameRecord>* names);
-  bool ReadComposition(const YAML::Node& value, Species* species);
-  void ReadRotation(const YAML::Node& node,
+  bool ReadFormula(const YAML::Node& value, Species* species);
+  void ReadRotation(const YAML::Node& block,
                     const Entries& entries,
                     bool composition_ok,
                     bool shape_ok,
                     bool has_diatomic,
                     Species* species);
   std::optional<std::vector<GeometryAtom>> ReadGeometry(const YAML::Node& value);
-  void ReadVibrations(const YAML::Node& node,
+  void ReadVibrations(const YAML::Node& block,
                       const Entries& entries,
                       bool composition_ok,
                       bool shape_ok,
@@ -904,11 +911,11 @@ std::optional<Defaults> FileParser::ReadDefaults(const YAML::Node& node) {
   Defaults defaults;
   const std::optional<Entries> entries = ReadEntries(node, "", kDefaultsKeys);
   if (entries) {
-    if (const Entry* entry = entries->Find("temperatures")) {
-      ReadTemperatures(entry->value, "temperatures", &defaults.temperatures);
+    if (const Entry* entry = entries->Find("fit-temperatures")) {
+      ReadTemperatures(entry->value, "fit-temperatures", &defaults.temperatures);
     }
-    if (const Entry* entry = entries->Find("pressure")) {
-      if (const auto pressure_pa = ReadStandardPressure(entry->value, "pressure")) {
+    if (const Entry* entry = entries->Find("standard-pressure")) {
+      if (const auto pressure_pa = ReadStandardPressure(entry->value, "standard-pressure")) {
         defaults.pressure_pa = *pressure_pa;
       }
     }
@@ -920,67 +927,44 @@ std::optional<Defaults> FileParser::ReadDefaults(const YAML::Node& node) {
   return defaults;
 }
 
-bool FileParser::ReadComposition(const YAML::Node& value, Species* species) {
-  const std::string expected_map = "a map of element symbols to atom counts, such as {C: 1, O: 2}";
-  if (!value.IsMap()) {
-    Fail(value, "composition", Describe(value), expected_map);
+bool FileParser::ReadFormula(const YAML::Node& value, Species* species) {
+  const std::string expected = "a chemical formula such as CH4, C2H5OH, (CH3)2CO or HCO+";
+  if (!value.IsScalar()) {
+    Fail(value, "formula", Describe(value), expected);
     return false;
   }
-  if (value.size() == 0) {
-    Fail(value, "composition", "an empty map", expected_map);
+  FormulaError error;
+  const std::optional<ParsedFormula> formula = ParseFormula(value.Scalar(), &error);
+  if (!formula) {
+    // Point at the offending character: the value's column, past an opening quote.
+    YAML::Mark mark = value.Mark();
+    const bool quoted = value.Tag() == "!";
+    if (!mark.is_null()) mark.column += static_cast<int>(error.offset) + (quoted ? 1 : 0);
+    FailText(mark,
+             "formula",
+             "'" + value.Scalar() + "': " + error.found + " at character " +
+                 std::to_string(error.offset + 1) + "; expected " + error.expected);
     return false;
   }
-  bool ok = true;
-  for (auto it = value.begin(); it != value.end(); ++it) {
-    const YAML::Node key_node = it->first;
-    const std::string symbol = key_node.IsScalar() ? key_node.Scalar() : "";
-    if (!key_node.IsScalar() || !AtomicWeightGPerMol(symbol)) {
-      Fail(key_node,
-           "composition",
-           "unknown element " + Describe(key_node),
-           "one of " + JoinWords(KnownElementSymbols()));
-      ok = false;
-      continue;
-    }
-    const std::string key = "composition." + symbol;
-    const bool repeated = std::any_of(species->composition.begin(),
-                                      species->composition.end(),
-                                      [&](const auto& entry) { return entry.first == symbol; });
-    if (repeated) {
-      Fail(key_node, key, "given twice", "each element once");
-      ok = false;
-      continue;
-    }
-    const std::optional<int> count = ReadInteger(it->second, key, "a positive whole atom count");
-    if (!count) {
-      ok = false;
-    } else if (*count < 1 || *count > kMaxAtomCount) {
-      Fail(it->second,
-           key,
-           std::to_string(*count),
-           "a positive whole atom count of at most " + std::to_string(kMaxAtomCount));
-      ok = false;
-    } else {
-      species->composition.emplace_back(symbol, *count);
-    }
-  }
-  return ok;
+  species->composition = formula->counts;
+  species->charge = formula->charge;
+  return true;
 }
 
 std::optional<std::vector<GeometryAtom>> FileParser::ReadGeometry(const YAML::Node& value) {
   const std::string expected_atom = "[symbol, x, y, z] with coordinates in angstrom";
-  if (!IsSequence(value, "geometry", "a list of atoms, each " + expected_atom)) {
+  if (!IsSequence(value, "structure", "a list of atoms, each " + expected_atom)) {
     return std::nullopt;
   }
   if (value.size() == 0) {
-    Fail(value, "geometry", "an empty list", "a list of atoms, each " + expected_atom);
+    Fail(value, "structure", "an empty list", "a list of atoms, each " + expected_atom);
     return std::nullopt;
   }
   std::vector<GeometryAtom> atoms;
   bool ok = true;
   for (std::size_t i = 0; i < value.size(); ++i) {
     const YAML::Node item = value[i];
-    const std::string key = "geometry[" + std::to_string(i) + "]";
+    const std::string key = "structure[" + std::to_string(i) + "]";
     if (!item.IsSequence() || item.size() != 4) {
       Fail(item, key, Describe(item), expected_atom);
       ok = false;
@@ -1016,7 +1000,7 @@ std::optional<std::vector<GeometryAtom>> FileParser::ReadGeometry(const YAML::No
   return atoms;
 }
 
-void FileParser::ReadRotation(const YAML::Node& node,
+void FileParser::ReadRotation(const YAML::Node& block,
                               const Entries& entries,
                               bool composition_ok,
                               bool shape_ok,
@@ -1024,7 +1008,7 @@ void FileParser::ReadRotation(const YAML::Node& node,
                               Species* species) {
   const Entry* constants_entry = entries.Find("rotational-constants");
   const Entry* moments_entry = entries.Find("moments-of-inertia");
-  const Entry* geometry_entry = entries.Find("geometry");
+  const Entry* geometry_entry = entries.Find("structure");
   if (!shape_ok) return;  // counts and consistency depend on the shape
 
   if (species->shape == Shape::kAtom) {
@@ -1044,9 +1028,9 @@ void FileParser::ReadRotation(const YAML::Node& node,
       linear ? "1 value (B) for a linear species" : "3 values (A, B, C) for a nonlinear species";
   if (!constants_entry && !moments_entry && !geometry_entry) {
     if (has_diatomic) return;  // B comes from the diatomic constants
-    Fail(node,
+    Fail(block,
          "rotational-constants",
-         "missing (none of rotational-constants, moments-of-inertia, geometry given)",
+         "missing (none of rotational-constants, moments-of-inertia, structure given)",
          "one of them for a " + ToString(species->shape) + " species");
     return;
   }
@@ -1091,22 +1075,22 @@ void FileParser::ReadRotation(const YAML::Node& node,
                                                     species->composition.end());
       if (composition_ok && geometry_counts != composition_counts) {
         Fail(geometry_entry->value,
-             "geometry",
+             "structure",
              "atoms " + CompositionText(geometry_counts),
-             "the atoms of the composition " + CompositionText(composition_counts));
+             "the atoms of the formula " + FormatFormula(species->composition, 0));
       } else if (composition_ok) {
         const RigidRotor rotor = AnalyzeGeometry(*atoms);
         if (rotor.shape == Shape::kAtom) {
           Fail(geometry_entry->value,
-               "geometry",
+               "structure",
                "all atoms at one point",
                "distinct atomic positions");
         } else if (rotor.shape != species->shape) {
           Fail(geometry_entry->value,
-               "geometry",
+               "structure",
                rotor.shape == Shape::kLinear ? "collinear atoms (a linear geometry)"
                                              : "atoms not on one line (a nonlinear geometry)",
-               "a geometry matching shape '" + ToString(species->shape) + "'");
+               "a structure matching shape '" + ToString(species->shape) + "'");
         } else {
           geometry_cm1 = rotor.rotational_constants_cm1;
         }
@@ -1153,7 +1137,7 @@ void FileParser::ReadRotation(const YAML::Node& node,
   }
   if (geometry_cm1 && outside_band(*geometry_cm1)) {
     Fail(geometry_entry->value,
-         "geometry",
+         "structure",
          "rotational constants " + NumberList(*geometry_cm1, "{:.6g}") + " cm^-1",
          band);
     geometry_cm1.reset();
@@ -1168,7 +1152,7 @@ void FileParser::ReadRotation(const YAML::Node& node,
       Fail(explicit_entry->value,
            explicit_entry->key,
            "rotational constants " + NumberList(*explicit_cm1, "{:.6g}") +
-               " cm^-1 differ from the geometry's " + NumberList(*geometry_cm1, "{:.6g}") +
+               " cm^-1 differ from the structure's " + NumberList(*geometry_cm1, "{:.6g}") +
                " cm^-1 by up to " + fmt::format("{:.3g}", 100.0 * worst) + " %",
            "agreement within " + Number(100.0 * kGeometryConstantsRelativeTolerance) + " %");
     }
@@ -1180,7 +1164,7 @@ void FileParser::ReadRotation(const YAML::Node& node,
   }
 }
 
-void FileParser::ReadVibrations(const YAML::Node& node,
+void FileParser::ReadVibrations(const YAML::Node& block,
                                 const Entries& entries,
                                 bool composition_ok,
                                 bool shape_ok,
@@ -1190,7 +1174,7 @@ void FileParser::ReadVibrations(const YAML::Node& node,
   const int num_atoms = species->NumAtoms();
   if (!entry) {
     if (shape_ok && composition_ok && species->shape != Shape::kAtom && !has_diatomic) {
-      Fail(node,
+      Fail(block,
            "vibrations",
            "missing",
            "a list of " + ShapeCountRule(species->shape, num_atoms) +
@@ -1324,7 +1308,7 @@ std::optional<DiatomicState> FileParser::ReadDiatomicState(const YAML::Node& val
       {"alphae", &c.alphae_cm1, false, -1},
       {"gammae", &c.gammae_cm1, false, -1},
       {"De", &c.de_cm1, false, 0},
-      {"dissociation", &c.dissociation_cm1, true, 1},
+      {"dissociation-energy", &c.dissociation_cm1, true, 1},
       {"energy", &state.energy_cm1, false, 0},
       {"degeneracy", &state.degeneracy, false, 1},
   };
@@ -1380,7 +1364,7 @@ void FileParser::ReadDiatomic(const Entry& entry,
   if (composition_ok && shape_ok &&
       (species->shape != Shape::kLinear || species->NumAtoms() != 2)) {
     Fail(entry.key_node,
-         "diatomic-constants",
+         "rovibrational-constants",
          "given for " + ShapePhrase(species->shape) +
              (species->shape == Shape::kAtom ? "" : " of " + Plural(species->NumAtoms(), "atom")),
          "a diatomic (shape linear, 2 atoms)");
@@ -1388,7 +1372,7 @@ void FileParser::ReadDiatomic(const Entry& entry,
   }
   if (entry.value.IsMap()) {
     std::optional<DiatomicState> state =
-        ReadDiatomicState(entry.value, "diatomic-constants", /*list_form=*/false);
+        ReadDiatomicState(entry.value, "rovibrational-constants", /*list_form=*/false);
     if (!state) return;
     // Map form: the ground electronic state; its degeneracy is that of the ground level.
     state->degeneracy = species->electronic_levels.front().degeneracy;
@@ -1396,12 +1380,12 @@ void FileParser::ReadDiatomic(const Entry& entry,
     return;
   }
   if (!IsSequence(entry.value,
-                  "diatomic-constants",
+                  "rovibrational-constants",
                   "a map of constants, or a list of maps, one per electronic state")) {
     return;
   }
   if (entry.value.size() == 0) {
-    Fail(entry.value, "diatomic-constants", "an empty list", "at least the ground state");
+    Fail(entry.value, "rovibrational-constants", "an empty list", "at least the ground state");
     return;
   }
   if (const Entry* levels = entries.Find("electronic-levels")) {
@@ -1413,7 +1397,7 @@ void FileParser::ReadDiatomic(const Entry& entry,
   std::vector<DiatomicState> states;
   bool ok = true;
   for (std::size_t i = 0; i < entry.value.size(); ++i) {
-    const std::string key = "diatomic-constants[" + std::to_string(i) + "]";
+    const std::string key = "rovibrational-constants[" + std::to_string(i) + "]";
     const auto state = ReadDiatomicState(entry.value[i], key, /*list_form=*/true);
     if (!state) {
       ok = false;
@@ -1444,19 +1428,19 @@ void FileParser::ReadNuclearSpin(const Entry& entry,
       (species->shape != Shape::kLinear || species->composition.size() != 1 ||
        species->composition.front().second != 2)) {
     Fail(entry.key_node,
-         "nuclear-spin",
+         "spin-statistics",
          "given for a species that is not a homonuclear diatomic",
-         "nuclear-spin only for a homonuclear diatomic such as H2 or D2");
+         "spin-statistics only for a homonuclear diatomic such as H2 or D2");
     return;
   }
-  const auto entries = ReadEntries(entry.value, "nuclear-spin", kNuclearSpinKeys);
+  const auto entries = ReadEntries(entry.value, "spin-statistics", kNuclearSpinKeys);
   if (!entries) return;
   NuclearSpin spin;
   bool ok = true;
   for (const auto& [name, target] :
-       {std::pair<const char*, double*>{"even", &spin.even_weight}, {"odd", &spin.odd_weight}}) {
+       {std::pair<const char*, double*>{"even-j", &spin.even_weight}, {"odd-j", &spin.odd_weight}}) {
     const Entry* weight = entries->Find(name);
-    const std::string key = std::string("nuclear-spin.") + name;
+    const std::string key = std::string("spin-statistics.") + name;
     if (!weight) {
       Fail(entry.value, key, "missing", "a nuclear-spin weight of at least 0");
       ok = false;
@@ -1471,15 +1455,15 @@ void FileParser::ReadNuclearSpin(const Entry& entry,
     }
   }
   if (ok && spin.even_weight == 0.0 && spin.odd_weight == 0.0) {
-    Fail(entry.value, "nuclear-spin", "both weights 0", "at least one positive weight");
+    Fail(entry.value, "spin-statistics", "both weights 0", "at least one positive weight");
     ok = false;
   }
   if (const Entry* mixture = entries->Find("mixture")) {
-    const auto text = ReadString(mixture->value, "nuclear-spin.mixture", "equilibrium or normal");
+    const auto text = ReadString(mixture->value, "spin-statistics.mixture", "equilibrium or normal");
     const std::optional<SpinMixture> parsed = text ? ParseSpinMixture(*text) : std::nullopt;
     if (text && !parsed) {
       Fail(mixture->value,
-           "nuclear-spin.mixture",
+           "spin-statistics.mixture",
            Describe(mixture->value),
            "equilibrium or normal");
     }
@@ -1498,12 +1482,12 @@ void FileParser::ReadTorsions(const Entry& entry,
                               Species* species) {
   if (shape_ok && species->shape != Shape::kNonlinear) {
     Fail(entry.key_node,
-         "torsions",
+         "hindered-rotors",
          "given for " + ShapePhrase(species->shape),
-         "torsions only for a nonlinear species");
+         "hindered-rotors only for a nonlinear species");
     return;
   }
-  if (!IsSequence(entry.value, "torsions", "a list of maps with keys " + JoinWords(kTorsionKeys))) {
+  if (!IsSequence(entry.value, "hindered-rotors", "a list of maps with keys " + JoinWords(kTorsionKeys))) {
     return;
   }
   std::vector<bool> replaced(species->vibrations_cm1.size(), false);
@@ -1511,7 +1495,7 @@ void FileParser::ReadTorsions(const Entry& entry,
   bool all_ok = true;
   for (std::size_t i = 0; i < entry.value.size(); ++i) {
     const YAML::Node item = entry.value[i];
-    const std::string key = "torsions[" + std::to_string(i) + "]";
+    const std::string key = "hindered-rotors[" + std::to_string(i) + "]";
     const std::size_t before = problems_->size();
     const auto entries = ReadEntries(item, key, kTorsionKeys);
     if (!entries) {
@@ -1586,34 +1570,34 @@ void FileParser::ReadTorsions(const Entry& entry,
            "one of the two");
     }
 
-    if (const Entry* symmetry = entries->Find("symmetry")) {
+    if (const Entry* symmetry = entries->Find("symmetry-number")) {
       const auto n =
-          ReadInteger(symmetry->value, key + ".symmetry", "a whole number of at least 1");
+          ReadInteger(symmetry->value, key + ".symmetry-number", "a whole number of at least 1");
       if (n && *n < 1) {
         Fail(
-            symmetry->value, key + ".symmetry", std::to_string(*n), "a whole number of at least 1");
+            symmetry->value, key + ".symmetry-number", std::to_string(*n), "a whole number of at least 1");
       } else if (n) {
         torsion.symmetry = *n;
       }
     }
 
-    const Entry* barrier = entries->Find("barrier");
-    const Entry* fourier = entries->Find("fourier");
+    const Entry* barrier = entries->Find("barrier-height");
+    const Entry* fourier = entries->Find("cosine-terms");
     if (barrier && fourier) {
       Fail(fourier->key_node,
-           key + ".fourier",
-           "given together with barrier",
+           key + ".cosine-terms",
+           "given together with barrier-height",
            "only one of the two");
     } else if (barrier) {
-      const auto v0 = ReadEnergy(barrier->value, key + ".barrier");
+      const auto v0 = ReadEnergy(barrier->value, key + ".barrier-height");
       if (v0 && *v0 < 0.0) {
         Fail(barrier->value,
-             key + ".barrier",
+             key + ".barrier-height",
              Describe(barrier->value) + " is negative",
              "a barrier height of at least 0");
       } else if (v0 && *v0 > kMaxTorsionBarrierJPerMol) {
         Fail(barrier->value,
-             key + ".barrier",
+             key + ".barrier-height",
              Describe(barrier->value),
              "a barrier height of at most " + Number(kMaxTorsionBarrierJPerMol * 1.0e-3) +
                  " kJ/mol");
@@ -1622,10 +1606,10 @@ void FileParser::ReadTorsions(const Entry& entry,
       }
     } else if (fourier) {
       const std::string term_text = "[k, V_k] with k a whole number >= 1 and V_k a molar energy";
-      if (IsSequence(fourier->value, key + ".fourier", "a list of terms " + term_text)) {
+      if (IsSequence(fourier->value, key + ".cosine-terms", "a list of terms " + term_text)) {
         for (std::size_t t = 0; t < fourier->value.size(); ++t) {
           const YAML::Node term = fourier->value[t];
-          const std::string term_key = key + ".fourier[" + std::to_string(t) + "]";
+          const std::string term_key = key + ".cosine-terms[" + std::to_string(t) + "]";
           if (!term.IsSequence() || term.size() != 2) {
             Fail(term, term_key, Describe(term), term_text);
             continue;
@@ -1655,9 +1639,9 @@ void FileParser::ReadTorsions(const Entry& entry,
       }
     } else {
       Fail(item,
-           key + ".barrier",
-           "missing (neither barrier nor fourier)",
-           "one of the two (barrier: 0 for a free rotor)");
+           key + ".barrier-height",
+           "missing (neither barrier-height nor cosine-terms)",
+           "one of the two (barrier-height: 0 for a free rotor)");
     }
     if (problems_->size() != before) {
       all_ok = false;
@@ -1668,62 +1652,92 @@ void FileParser::ReadTorsions(const Entry& entry,
   if (all_ok) species->torsions = torsions;
 }
 
-std::optional<Species> FileParser::ReadSpecies(const YAML::Node& node,
+bool FileParser::CheckFormat(const YAML::Node& root) {
+  const std::string format_line = std::string(kFormatKey) + ": " + std::to_string(kFormatVersion);
+  if (!root.IsMap()) {
+    Fail(root, "", Describe(root), "a map starting with '" + format_line + "'");
+    return false;
+  }
+  const auto first = root.begin();
+  const bool first_is_format =
+      first != root.end() && first->first.IsScalar() && first->first.Scalar() == kFormatKey;
+  if (!first_is_format) {
+    // Nodes are handles whose assignment copies content, so the finds are kept as iterators.
+    auto format_key = root.end(), species = root.end();
+    for (auto it = root.begin(); it != root.end(); ++it) {
+      if (!it->first.IsScalar()) continue;
+      if (it->first.Scalar() == kFormatKey && format_key == root.end()) format_key = it;
+      if (it->first.Scalar() == "species") species = it;
+    }
+    if (format_key != root.end()) {
+      Fail(format_key->first,
+           std::string(kFormatKey),
+           "not the first key",
+           "the format key first, before every other key");
+    } else if (species != root.end() && species->second.IsSequence()) {
+      Fail(first->first,
+           "",
+           "a species file of the first layout (a 'species' list of 'name' items, no '" +
+               std::string(kFormatKey) + "' key)",
+           "the layout of version " + std::to_string(kFormatVersion) + "; " + kUpgradeHint);
+    } else {
+      Fail(first != root.end() ? first->first : root,
+           std::string(kFormatKey),
+           "missing",
+           "'" + format_line + "' as the first key (the format and its version)");
+    }
+    return false;
+  }
+  const YAML::Node& version = first->second;
+  if (!version.IsScalar() || version.Scalar() != std::to_string(kFormatVersion)) {
+    Fail(version,
+         std::string(kFormatKey),
+         "version " + Describe(version),
+         "version " + std::to_string(kFormatVersion) +
+             " (the version this build reads); files of the first layout have no version: " +
+             kUpgradeHint);
+    return false;
+  }
+  return true;
+}
+
+std::optional<Species> FileParser::ReadSpecies(const YAML::Node& label_node,
+                                               const YAML::Node& node,
                                                int index,
                                                const Defaults& defaults,
                                                std::vector<NameRecord>* names) {
   context_ = "species #" + std::to_string(index + 1);
-  // Name the species in every message, including those about its other keys, when it has a name.
-  if (node.IsMap()) {
-    for (auto it = node.begin(); it != node.end(); ++it) {
-      if (it->first.IsScalar() && it->first.Scalar() == "name" && it->second.IsScalar() &&
-          !it->second.Scalar().empty()) {
-        context_ = "species '" + it->second.Scalar() + "'";
-        break;
-      }
-    }
-  }
   const std::size_t before = problems_->size();
+  Species species;
+  species.location = Where(label_node);
+  const std::string label = label_node.IsScalar() ? label_node.Scalar() : "";
+  const bool label_bad = !label_node.IsScalar() || label.empty() ||
+                         std::any_of(label.begin(), label.end(), [](char c) {
+                           return static_cast<unsigned char>(c) <= ' ' || c == 0x7f;
+                         });
+  if (label_bad) {
+    Fail(label_node,
+         "label",
+         Describe(label_node),
+         "a species label (a non-empty text without spaces or control characters) as the key");
+  } else {
+    species.name = label;
+    context_ = "species '" + label + "'";
+    names->push_back(NameRecord{label, Where(label_node), file_index_});
+  }
   const std::optional<Entries> entries_or = ReadEntries(node, "", kSpeciesKeys);
   if (!entries_or) return std::nullopt;
   const Entries& entries = *entries_or;
 
-  Species species;
-  species.location = Where(node);
   species.temperatures = defaults.temperatures;
   species.standard_pressure_pa = defaults.pressure_pa;
   species.thresholds = defaults.thresholds;
 
-  if (const Entry* entry = entries.Find("name")) {
-    const auto name = ReadString(entry->value, "name", "a species name");
-    const bool has_space = name && std::any_of(name->begin(), name->end(), [](char c) {
-                             return static_cast<unsigned char>(c) <= ' ' || c == 0x7f;
-                           });
-    if (name && (name->empty() || has_space)) {
-      Fail(entry->value,
-           "name",
-           Describe(entry->value),
-           "a non-empty name without spaces or control characters");
-    } else if (name) {
-      species.name = *name;
-      context_ = "species '" + *name + "'";
-      names->push_back(NameRecord{*name, Where(entry->value), file_index_});
-    }
-  } else {
-    Fail(node, "name", "missing", "a unique species name");
-  }
-
   bool composition_ok = false;
-  if (const Entry* entry = entries.Find("composition")) {
-    composition_ok = ReadComposition(entry->value, &species);
+  if (const Entry* entry = entries.Find("formula")) {
+    composition_ok = ReadFormula(entry->value, &species);
   } else {
-    Fail(node, "composition", "missing", "a map of element symbols to atom counts");
-  }
-
-  if (const Entry* entry = entries.Find("charge")) {
-    if (const auto charge = ReadInteger(entry->value, "charge", "a whole number")) {
-      species.charge = *charge;
-    }
+    Fail(label_node, "formula", "missing", "a chemical formula such as CH4, C2H5OH or HCO+");
   }
 
   if (const Entry* entry = entries.Find("formation-enthalpy")) {
@@ -1739,7 +1753,7 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& node,
       }
     }
   } else {
-    Fail(node, "formation-enthalpy", "missing", "the enthalpy of formation at 298.15 K");
+    Fail(label_node, "formation-enthalpy", "missing", "the enthalpy of formation at 298.15 K");
   }
 
   bool shape_ok = false;
@@ -1755,7 +1769,7 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& node,
       shape_ok = true;
     }
   } else {
-    Fail(node, "shape", "missing", "atom, linear or nonlinear");
+    Fail(label_node, "shape", "missing", "atom, linear or nonlinear");
   }
   if (shape_ok && composition_ok) {
     const int num_atoms = species.NumAtoms();
@@ -1765,7 +1779,7 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& node,
     if ((species.shape == Shape::kAtom && num_atoms != 1) || num_atoms < min_atoms) {
       Fail(shape_entry->value,
            "shape",
-           "'" + ToString(species.shape) + "' for a composition of " + Plural(num_atoms, "atom"),
+           "'" + ToString(species.shape) + "' for a formula of " + Plural(num_atoms, "atom"),
            species.shape == Shape::kAtom
                ? "exactly 1 atom for shape 'atom'"
                : "at least " + std::to_string(min_atoms) + " atoms for shape '" +
@@ -1789,20 +1803,20 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& node,
       }
     }
   } else if (shape_ok && species.shape != Shape::kAtom) {
-    Fail(node,
+    Fail(label_node,
          "symmetry-number",
          "missing",
          "the external symmetry number for a " + ToString(species.shape) + " species");
   }
 
-  const Entry* diatomic_entry = entries.Find("diatomic-constants");
+  const Entry* diatomic_entry = entries.Find("rovibrational-constants");
   // Electronic levels first: the map form of diatomic-constants takes the ground degeneracy.
   const Entry* levels_entry = entries.Find("electronic-levels");
   if (levels_entry) ReadElectronicLevels(levels_entry->value, &species);
   if (diatomic_entry) ReadDiatomic(*diatomic_entry, entries, composition_ok, shape_ok, &species);
   const bool has_diatomic = diatomic_entry != nullptr;
 
-  ReadRotation(node, entries, composition_ok, shape_ok, has_diatomic, &species);
+  ReadRotation(label_node, entries, composition_ok, shape_ok, has_diatomic, &species);
   if (has_diatomic && species.rotational_constants_cm1.empty() &&
       !species.diatomic_states.empty()) {
     // Rigid-rotor stand-in: B_0 = B_e - alpha_e / 2 of the ground state.
@@ -1810,7 +1824,7 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& node,
     species.rotational_constants_cm1 = {ground.be_cm1 - 0.5 * ground.alphae_cm1};
   }
   const std::size_t before_vibrations = problems_->size();
-  ReadVibrations(node, entries, composition_ok, shape_ok, has_diatomic, &species);
+  ReadVibrations(label_node, entries, composition_ok, shape_ok, has_diatomic, &species);
   const bool vibrations_ok = problems_->size() == before_vibrations;
 
   if (const Entry* entry = entries.Find("frequency-scale")) {
@@ -1838,26 +1852,27 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& node,
       species.centrifugal_distortion_cm1 = *d;
     }
   }
-  if (const Entry* entry = entries.Find("temperatures")) {
-    ReadTemperatures(entry->value, "temperatures", &species.temperatures);
+  if (const Entry* entry = entries.Find("fit-temperatures")) {
+    ReadTemperatures(entry->value, "fit-temperatures", &species.temperatures);
   }
-  if (const Entry* entry = entries.Find("pressure")) {
-    if (const auto pressure_pa = ReadStandardPressure(entry->value, "pressure")) {
+  if (const Entry* entry = entries.Find("standard-pressure")) {
+    if (const auto pressure_pa = ReadStandardPressure(entry->value, "standard-pressure")) {
       species.standard_pressure_pa = *pressure_pa;
     }
   }
   if (const Entry* entry = entries.Find("fit-thresholds")) {
     ReadThresholds(entry->value, "fit-thresholds", &species.thresholds);
   }
-  if (const Entry* entry = entries.Find("nuclear-spin")) {
+  if (const Entry* entry = entries.Find("spin-statistics")) {
     ReadNuclearSpin(*entry, composition_ok, shape_ok, &species);
   }
-  if (const Entry* entry = entries.Find("torsions")) {
+  if (const Entry* entry = entries.Find("hindered-rotors")) {
     ReadTorsions(*entry, shape_ok, vibrations_ok && composition_ok, &species);
   }
 
   if (problems_->size() != before) return std::nullopt;
-  std::string canonical = "sevenfold species v2\n";
+  std::string canonical = "sevenfold species v3\n";
+  AppendCanonical(label_node, &canonical);
   AppendCanonical(node, &canonical);
   canonical += defaults_canonical_;
   species.input_digest = Sha256Hex(canonical);
@@ -1914,6 +1929,7 @@ std::optional<std::vector<Species>> FileParser::ParseSplit(const SpeciesItemsSpl
   Defaults defaults;
   try {
     const YAML::Node root = YAML::Load(split.skeleton);
+    if (!top.CheckFormat(root)) return std::nullopt;
     const std::optional<Entries> entries = top.ReadEntries(root, "", kTopKeys);
     if (!entries) return std::nullopt;
     const Entry* list = entries->Find("species");
@@ -1946,9 +1962,10 @@ std::optional<std::vector<Species>> FileParser::ParseSplit(const SpeciesItemsSpl
       FileParser parser(text, file_name_, file_index_, &item_problems);
       parser.line_offset_ = item.first_line;
       parser.defaults_canonical_ = top.defaults_canonical_;
-      // The item's text alone is a block sequence of exactly this one item.
-      if (root.IsSequence() && root.size() == 1) {
-        result.species = parser.ReadSpecies(root[0], i, defaults, &result.names);
+      // The item's text alone is a map of exactly this one label.
+      if (root.IsMap() && root.size() == 1) {
+        result.species =
+            parser.ReadSpecies(root.begin()->first, root.begin()->second, i, defaults, &result.names);
       }
       if (!result.species || item_problems.size() > 0) failed = true;
     } catch (...) {
@@ -1983,10 +2000,11 @@ std::vector<Species> FileParser::ParseWholeDocument(std::vector<NameRecord>* nam
                      1,
                      1,
                      where.ToString() +
-                         ": the file holds no data; expected a map with a "
-                         "'species' list");
+                         ": the file holds no data; expected a map starting with '" +
+                         std::string(kFormatKey) + ": " + std::to_string(kFormatVersion) + "'");
       return {};
     }
+    if (!CheckFormat(root)) return {};
     const std::optional<Entries> top = ReadEntries(root, "", kTopKeys);
     if (!top) return {};
     Defaults defaults;
@@ -1997,18 +2015,22 @@ std::vector<Species> FileParser::ParseWholeDocument(std::vector<NameRecord>* nam
       if (problems_->size() == before) defaults_canonical_ = DefaultsCanonical(entry->value);
     }
     const Entry* list = top->Find("species");
+    const std::string expected_map = "a map from species labels to their data";
     if (!list) {
-      Fail(root, "species", "missing", "a list of species");
+      Fail(root, "species", "missing", expected_map);
       return {};
     }
-    if (!IsSequence(list->value, "species", "a list of species")) return {};
+    if (!list->value.IsMap()) {
+      Fail(list->value, "species", Describe(list->value), expected_map);
+      return {};
+    }
     if (list->value.size() == 0) {
-      Fail(list->value, "species", "an empty list", "at least one species");
+      Fail(list->value, "species", "an empty map", "at least one species");
       return {};
     }
-    for (std::size_t i = 0; i < list->value.size(); ++i) {
-      std::optional<Species> species =
-          ReadSpecies(list->value[i], static_cast<int>(i), defaults, names);
+    int index = 0;
+    for (auto it = list->value.begin(); it != list->value.end(); ++it, ++index) {
+      std::optional<Species> species = ReadSpecies(it->first, it->second, index, defaults, names);
       if (species) species_list.push_back(std::move(*species));
     }
   } catch (const YAML::Exception& error) {
@@ -2033,9 +2055,10 @@ void CheckDuplicateNames(const std::vector<NameRecord>& names, Problems* problem
     problems->Add(record.file_index,
                   record.where.line,
                   record.where.column,
-                  record.where.ToString() + ": species '" + record.name + "': name: '" +
-                      record.name + "' already defined at " + it->second->where.ToString() +
-                      "; expected names unique across all species files");
+                  record.where.ToString() + ": species '" + record.name + "': label '" +
+                      record.name + "' given twice, here and at " +
+                      it->second->where.ToString() +
+                      "; expected each label once across all species files read together");
   }
 }
 
