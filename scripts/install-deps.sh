@@ -7,8 +7,9 @@ set -euo pipefail
 packages=(g++ cmake make pkg-config libeigen3-dev libceres-dev libcli11-dev libyaml-cpp-dev libfmt-dev)
 if [[ "${1:-}" == "--tests" ]]; then
   # catch2: the unit-test framework; python3-ase: the reference library the engine is checked against;
-  # chromium: renders the report's HTML page headless, to check that a real browser draws every plot.
-  packages+=(catch2 python3-ase chromium)
+  # chromium: renders the report's HTML page headless, to check that a real browser draws every plot;
+  # python3-yaml: scripts/upgrade-species-file.py, run by tests/species_test.cc.
+  packages+=(catch2 python3-ase chromium python3-yaml)
 fi
 
 missing=()

@@ -194,7 +194,7 @@ def convert_data(data):
     return new, labels
 
 
-PLAIN = re.compile(r"[A-Za-z0-9(][A-Za-z0-9_+\-().'/]*")
+PLAIN = re.compile(r"[A-Za-z0-9(+\-.][A-Za-z0-9_+\-().'/ ^*]*(?<! )")
 
 
 def scalar_text(text):

@@ -12,6 +12,7 @@
 #include <filesystem>
 #include <fstream>
 #include <iterator>
+#include <sstream>
 #include <string>
 #include <vector>
 
@@ -21,6 +22,7 @@
 #include "species/formula.h"
 #include "species/geometry.h"
 #include "species/species_reader.h"
+#include "run_binary.h"
 
 namespace sevenfold {
 namespace {
@@ -1196,6 +1198,86 @@ TEST_CASE("the input digest ignores flow or block style and quoting but not cont
   std::string other_defaults = block_defaults;
   other_defaults.replace(other_defaults.find("5000"), 4, "5500");
   CHECK(ReadSpeciesText(other_defaults, "f.yaml").at(0).input_digest != with_defaults);
+}
+
+// scripts/upgrade-species-file.py on files of the first layout: the converted file must give the
+// very same tables (every printed digit) as the same species written in the current layout, keep
+// the comments of the items it rewrites line by line, and be refused by nothing.
+TEST_CASE("the upgrade script turns first-layout files into files with identical tables",
+          "[species]") {
+  using testing::RunBinary;
+  TempDir dir;
+  const std::string source_dir = SEVENFOLD_SOURCE_DIR;
+  const auto upgrade = [&](const std::string& old_path, const std::string& new_path) {
+    const std::string command = "/usr/bin/python3 " + source_dir +
+                                "/scripts/upgrade-species-file.py " + old_path + " -o " +
+                                new_path + " 2>" + dir.Path("upgrade.err");
+    const int raw = std::system(command.c_str());
+    return WIFEXITED(raw) ? WEXITSTATUS(raw) : -1;
+  };
+  const std::string table = " --from 100 --to 6000 --step 50 --format csv";
+  // The demo files before the layout change, against the committed current-layout demo files.
+  for (const std::string name : {"h2-o2-core", "nitrogen-chemistry"}) {
+    INFO(name);
+    const std::string old_path = source_dir + "/tests/data/first-layout/" + name + ".yaml";
+    const std::string new_path = dir.Path(name + ".yaml");
+    REQUIRE(upgrade(old_path, new_path) == 0);
+    const testing::RunResult converted = RunBinary("table " + new_path + table);
+    const testing::RunResult current = RunBinary("table species/" + name + ".yaml" + table);
+    REQUIRE(converted.exit_status == 0);
+    CHECK(converted.out == current.out);
+    CHECK(converted.out.size() > 1000);
+    // Every comment line of the old file is kept.
+    std::istringstream old_lines(testing::ReadWhole(old_path));
+    const std::string converted_text = testing::ReadWhole(new_path);
+    int num_comments = 0;
+    for (std::string line; std::getline(old_lines, line);) {
+      const std::size_t hash = line.find('#');
+      if (hash == std::string::npos) continue;
+      ++num_comments;
+      CHECK(converted_text.find(line.substr(hash)) != std::string::npos);
+    }
+    CHECK(num_comments > 20);
+    // Given to sevenfold unconverted, the old file is refused with the way to convert it.
+    const testing::RunResult refused = RunBinary("table " + old_path);
+    CHECK(refused.exit_status == 2);
+    CHECK_THAT(refused.err, Contains("scripts/upgrade-species-file.py"));
+  }
+  // An ion (charge folded into the formula), a flow-style item and a composition over several
+  // lines, against the same species written by hand in the current layout.
+  const std::string ions = dir.Path("ions.yaml");
+  REQUIRE(upgrade(source_dir + "/tests/data/first-layout/ions.yaml", ions) == 0);
+  const std::string by_hand = dir.Write(
+      "by-hand.yaml",
+      "sevenfold-species: 2\n"
+      "defaults:\n  fit-temperatures: {low: 300, mid: 1000, high: 5000}\n"
+      "species:\n"
+      "  NO+:\n    formula: NO+\n    formation-enthalpy: 990.8 kJ/mol\n    shape: linear\n"
+      "    symmetry-number: 1\n    rotational-constants: [1.9972]\n    vibrations: [2376.4]\n"
+      "  O2-:\n    formula: O2-\n    formation-enthalpy: -48.7 kJ/mol\n    shape: linear\n"
+      "    symmetry-number: 2\n    rotational-constants: [1.17]\n    vibrations: [1090]\n"
+      "    electronic-levels: [[0, 4]]\n"
+      "  CH4:\n    formula: CH4\n    formation-enthalpy: -74.87\n    shape: nonlinear\n"
+      "    symmetry-number: 12\n    rotational-constants: [5.241, 5.241, 5.241]\n"
+      "    vibrations: [2917, 1534, 1534, 3019, 3019, 3019, 1306, 1306, 1306]\n");
+  const testing::RunResult converted = RunBinary("table " + ions + table);
+  REQUIRE(converted.exit_status == 0);
+  CHECK(converted.out == RunBinary("table " + by_hand + table).out);
+  const std::vector<Species> read = ReadSpeciesFiles({ions});
+  REQUIRE(read.size() == 3);
+  CHECK(read[0].charge == 1);
+  CHECK(read[1].charge == -1);
+  CHECK(read[2].composition == std::vector<std::pair<std::string, int>>{{"C", 1}, {"H", 4}});
+
+  // What the script does not understand is refused, and nothing is written.
+  const std::string refused_path = dir.Path("refused.yaml");
+  CHECK(upgrade(source_dir + "/species/h2-o2-core.yaml", refused_path) == 2);
+  CHECK_THAT(testing::ReadWhole(dir.Path("upgrade.err")), Contains("already in the current layout"));
+  const std::string unknown =
+      dir.Write("unknown.yaml", "species:\n  - name: Ar\n    composition: {Ar: 1}\n    colour: red\n");
+  CHECK(upgrade(unknown, refused_path) == 2);
+  CHECK_THAT(testing::ReadWhole(dir.Path("upgrade.err")), Contains("unknown key 'colour'"));
+  CHECK_FALSE(std::filesystem::exists(refused_path));
 }
 
 }  // namespace sevenfold
