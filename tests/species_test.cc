@@ -380,7 +380,7 @@ TEST_CASE("unknown keys are reported with the allowed ones", "[species]") {
   REQUIRE_THROWS_WITH(
       ReadSpeciesText(text, "f.yaml"),
       Contains("f.yaml:10:5: species 'CO2': vibration: unknown key; expected one of formula, "
-               "formation-enthalpy, shape,") &&
+               "formation-enthalpy, formation-enthalpy-0k, shape,") &&
           Contains("spin-statistics, hindered-rotors"));
   CHECK(NumProblems(text) == 1);
   REQUIRE_THROWS_WITH(
@@ -479,7 +479,9 @@ TEST_CASE("formula errors point at the bad character in the file", "[species]") 
                "count of at least 1 without a leading zero"));
   // The charge comes from the formula.
   const std::vector<Species> ion =
-      ReadSpeciesText(Join(With(With(Co2Lines(), 3, "  CO2+:"), 4, "    formula: CO2+")), "f.yaml");
+      ReadSpeciesText(Join(Plus(With(With(Co2Lines(), 3, "  CO2+:"), 4, "    formula: CO2+"),
+                                "    spin-multiplicity: 2")),
+                      "f.yaml");
   REQUIRE(ion.size() == 1);
   CHECK(ion[0].charge == 1);
   CHECK(ion[0].name == "CO2+");
@@ -546,8 +548,9 @@ TEST_CASE("the number of rotational constants must fit the shape", "[species]") 
                "value (B) for a linear species"));
   REQUIRE_THROWS_WITH(
       ReadSpeciesText(Join(With(Co2Lines(), 8, "    rotational-constants: [-0.39021]")), "f.yaml"),
-      Contains("f.yaml:8:28: species 'CO2': rotational-constants[0]: -0.39021 is not positive; "
-               "expected a positive rotational constant in cm^-1"));
+      Contains("f.yaml:8:28: species 'CO2': rotational-constants[0]: '-0.39021' is not positive; "
+               "expected a positive rotational constant (a number in cm^-1, or with one of the "
+               "units cm^-1, GHz, MHz)"));
 }
 
 TEST_CASE("the number of vibrations must be 3N-5 or 3N-6", "[species]") {
@@ -1198,6 +1201,164 @@ TEST_CASE("the input digest ignores flow or block style and quoting but not cont
   std::string other_defaults = block_defaults;
   other_defaults.replace(other_defaults.find("5000"), 4, "5500");
   CHECK(ReadSpeciesText(other_defaults, "f.yaml").at(0).input_digest != with_defaults);
+}
+
+TEST_CASE("fit settings in the defaults and per species reach the fit request", "[species]") {
+  const std::string text =
+      "sevenfold-species: 2\n"
+      "defaults:\n"
+      "  fit-objective: least-squares\n"
+      "  fit-error-scales: {cp: 0.01, entropy: 0.004}\n"
+      "species:\n" +
+      Join(Items(Co2Lines())) +
+      "    fit-extrapolation-guard: 1.5:0.1\n"
+      "    fit-error-scales: {enthalpy: 0.003}\n"
+      "    fit-temperatures: {mid: 1200}\n" +
+      Join(Items(WaterLines())) + "    fit-objective: minimax\n    fit-extrapolation-guard: off\n";
+  const std::vector<Species> list = ReadSpeciesText(text, "f.yaml");
+  REQUIRE(list.size() == 2);
+  const FitRequest& co2 = list[0].fit_request;
+  CHECK(co2.objective == FitObjective::kLeastSquares);  // from the defaults
+  REQUIRE(co2.extrapolation_guard.has_value());
+  CHECK(co2.extrapolation_guard->enabled);
+  CHECK(co2.extrapolation_guard->factor == 1.5);
+  CHECK(co2.extrapolation_guard->band == 0.1);
+  REQUIRE(co2.error_scales.has_value());
+  // Merged key by key: cp and entropy from the defaults, enthalpy from the species.
+  CHECK(co2.error_scales->cp_relative == 0.01);
+  CHECK(co2.error_scales->h_over_rt == 0.003);
+  CHECK(co2.error_scales->s_over_r == 0.004);
+  CHECK(co2.mid_given);
+  CHECK(list[0].temperatures.mid_k == 1200.0);
+  const FitRequest& water = list[1].fit_request;
+  CHECK(water.objective == FitObjective::kMinimax);
+  REQUIRE(water.extrapolation_guard.has_value());
+  CHECK_FALSE(water.extrapolation_guard->enabled);
+  CHECK(water.error_scales->h_over_rt == ErrorScales{}.h_over_rt);
+  CHECK_FALSE(water.mid_given);
+  // A file that says nothing leaves the request empty; `mid: auto` counts as given.
+  const Species plain = ReadSpeciesText(Join(Co2Lines()), "f.yaml").at(0);
+  CHECK_FALSE(plain.fit_request.objective.has_value());
+  CHECK_FALSE(plain.fit_request.extrapolation_guard.has_value());
+  CHECK_FALSE(plain.fit_request.error_scales.has_value());
+  CHECK_FALSE(plain.fit_request.mid_given);
+  CHECK(ReadSpeciesText(Join(Plus(Co2Lines(), "    fit-temperatures: {mid: auto}")), "f.yaml")
+            .at(0)
+            .fit_request.mid_given);
+
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(Co2Lines(), "    fit-objective: best")), "f.yaml"),
+      Contains("f.yaml:10:20: species 'CO2': fit-objective: 'best'; expected minimax or "
+               "least-squares"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(Co2Lines(), "    fit-extrapolation-guard: 0.5:0.1")), "f.yaml"),
+      Contains("f.yaml:10:30: species 'CO2': fit-extrapolation-guard: '0.5:0.1'; expected off, "
+               "or FACTOR:BAND such as 1.25:0.2"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(Co2Lines(), "    fit-error-scales: {cp: 0}")), "f.yaml"),
+      Contains("f.yaml:10:28: species 'CO2': fit-error-scales.cp: 0 is not positive; expected a "
+               "positive dimensionless weight"));
+}
+
+// The ground levels of CH3 (a doublet radical, 9 electrons): from memory, for the messages only.
+std::vector<std::string> MethylLines() {
+  return {
+      "sevenfold-species: 2",                                      // 1
+      "species:",                                                  // 2
+      "  CH3:",                                                    // 3
+      "    formula: CH3",                                          // 4
+      "    formation-enthalpy: 146.7",                             // 5
+      "    shape: nonlinear",                                      // 6
+      "    symmetry-number: 6",                                    // 7
+      "    rotational-constants: [9.578, 9.578, 4.742]",           // 8
+      "    vibrations: [3004.4, 606.5, 3160.8, 3160.8, 1396, 1396]",  // 9
+  };
+}
+
+TEST_CASE("an odd-electron species needs a degenerate ground level (Kramers)", "[species]") {
+  // Electrons from the formula and the charge: CH3 has 9, CH3+ 8, NO 15.
+  CHECK(ReadSpeciesText(Join(Plus(MethylLines(), "    spin-multiplicity: 2")), "f.yaml")
+            .at(0)
+            .NumElectrons() == 9);
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(MethylLines()), "f.yaml"),
+      Contains("f.yaml:3:3: species 'CH3': electronic-levels: ground-level degeneracy 1 (by "
+               "default) for a species of 9 electrons") &&
+          Contains("expected an odd-electron species needs its ground-state degeneracy: add "
+                   "electronic-levels or spin-multiplicity"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(MethylLines(), "    electronic-levels: [[0, 1], [100, 2]]")),
+                      "f.yaml"),
+      Contains("f.yaml:10:25: species 'CH3': electronic-levels[0]: ground-level degeneracy 1 "
+               "(given)"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(MethylLines(), "    spin-multiplicity: 1")), "f.yaml"),
+      Contains("f.yaml:10:24: species 'CH3': spin-multiplicity: ground-level degeneracy 1"));
+  // The cation has an even count and reads with the default singlet.
+  const Species cation = ReadSpeciesText(
+      Join(With(With(MethylLines(), 3, "  CH3+:"), 4, "    formula: CH3+")), "f.yaml").at(0);
+  CHECK(cation.NumElectrons() == 8);
+  CHECK(cation.electronic_levels.front().degeneracy == 1.0);
+
+  const Species doublet =
+      ReadSpeciesText(Join(Plus(MethylLines(), "    spin-multiplicity: 2")), "f.yaml").at(0);
+  REQUIRE(doublet.electronic_levels.size() == 1);
+  CHECK(doublet.electronic_levels[0].energy_cm1 == 0.0);
+  CHECK(doublet.electronic_levels[0].degeneracy == 2.0);
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(Plus(MethylLines(), "    spin-multiplicity: 2"),
+                                "    electronic-levels: [[0, 2]]")),
+                      "f.yaml"),
+      Contains("f.yaml:10:5: species 'CH3': spin-multiplicity: given together with "
+               "electronic-levels"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(MethylLines(), "    spin-multiplicity: 1.5")), "f.yaml"),
+      Contains("f.yaml:10:24: species 'CH3': spin-multiplicity: '1.5'; expected a whole number "
+               "2S+1 of at least 1"));
+}
+
+TEST_CASE("rotational constants read in GHz and MHz, moments of inertia in kg m^2", "[species]") {
+  // 1 GHz is 1e9 / (100 c) cm^-1, c exact (SI definition): only rounding separates the readings.
+  constexpr double kHzToCm1 = 1.0 / (100.0 * constants::kSpeedOfLight);
+  const auto b_of = [](const std::string& line) {
+    return ReadSpeciesText(Join(With(Co2Lines(), 8, line)), "f.yaml").at(0).rotational_constants_cm1;
+  };
+  // CO2's B0 = 11.698 GHz (microwave value, from memory); here only the unit arithmetic counts.
+  CHECK_THAT(b_of("    rotational-constants: [11.698 GHz]").at(0),
+             WithinRel(11.698e9 * kHzToCm1, kReadRelativeTolerance));
+  CHECK_THAT(b_of("    rotational-constants: [11698 MHz]").at(0),
+             WithinRel(11.698e9 * kHzToCm1, kReadRelativeTolerance));
+  CHECK(b_of("    rotational-constants: [0.39021 cm^-1]").at(0) == 0.39021);
+  const auto from_moments = [](const std::string& line) {
+    return ReadSpeciesText(Join(With(Co2Lines(), 8, line)), "f.yaml").at(0).rotational_constants_cm1;
+  };
+  const double inertia_kg_m2 = 7.1739e-46;  // about CO2's (43.2 amu A^2), test input
+  CHECK_THAT(from_moments("    moments-of-inertia: [7.1739e-46 kg*m^2]").at(0),
+             WithinRel(constants::kRotationalConstantTimesInertia /
+                           (inertia_kg_m2 / constants::kAmuAngstrom2),
+                       kReadRelativeTolerance));
+  CHECK(from_moments("    moments-of-inertia: [43.2 amu*A^2]").at(0) ==
+        from_moments("    moments-of-inertia: [43.2]").at(0));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(With(Co2Lines(), 8, "    rotational-constants: [11.7 THz]")),
+                      "f.yaml"),
+      Contains("f.yaml:8:28: species 'CO2': rotational-constants[0]: '11.7 THz'; expected a "
+               "positive rotational constant (a number in cm^-1, or with one of the units cm^-1, "
+               "GHz, MHz)"));
+}
+
+TEST_CASE("the formation enthalpy may be given at 0 K instead of 298.15 K", "[species]") {
+  const Species co2 =
+      ReadSpeciesText(Join(With(Co2Lines(), 5, "    formation-enthalpy-0k: -393.15 kJ/mol")),
+                      "f.yaml")
+          .at(0);
+  REQUIRE(co2.formation_enthalpy_0k_j_per_mol.has_value());
+  CHECK_THAT(*co2.formation_enthalpy_0k_j_per_mol, WithinRel(-393150.0, kReadRelativeTolerance));
+  CHECK(co2.electron_convention == ElectronConvention::kThermal);
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(Join(Plus(Co2Lines(), "    formation-enthalpy-0k: -393.15")), "f.yaml"),
+      Contains("f.yaml:10:5: species 'CO2': formation-enthalpy-0k: given together with "
+               "formation-enthalpy; expected only one of the two"));
 }
 
 // scripts/upgrade-species-file.py on files of the first layout: the converted file must give the

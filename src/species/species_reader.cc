@@ -86,9 +86,15 @@ constexpr const char* kUpgradeHint =
     "convert the file with scripts/upgrade-species-file.py (docs/species-schema.md)";
 
 const std::vector<std::string> kTopKeys = {std::string(kFormatKey), "defaults", "species"};
-const std::vector<std::string> kDefaultsKeys = {"fit-temperatures", "standard-pressure", "fit-thresholds"};
+const std::vector<std::string> kDefaultsKeys = {"fit-temperatures",
+                                                "standard-pressure",
+                                                "fit-thresholds",
+                                                "fit-objective",
+                                                "fit-extrapolation-guard",
+                                                "fit-error-scales"};
 const std::vector<std::string> kSpeciesKeys = {"formula",
                                                "formation-enthalpy",
+                                               "formation-enthalpy-0k",
                                                "shape",
                                                "symmetry-number",
                                                "rotational-constants",
@@ -97,11 +103,15 @@ const std::vector<std::string> kSpeciesKeys = {"formula",
                                                "vibrations",
                                                "frequency-scale",
                                                "electronic-levels",
+                                               "spin-multiplicity",
                                                "optical-isomers",
                                                "centrifugal-distortion",
                                                "fit-temperatures",
                                                "standard-pressure",
                                                "fit-thresholds",
+                                               "fit-objective",
+                                               "fit-extrapolation-guard",
+                                               "fit-error-scales",
                                                "rovibrational-constants",
                                                "spin-statistics",
                                                "hindered-rotors"};
@@ -224,6 +234,7 @@ struct Defaults {
   TemperatureRanges temperatures;
   double pressure_pa = constants::kStandardPressureBar;
   QualityThresholds thresholds;
+  FitRequest fit_request;
 };
 
 // "an atom", "a linear species", "a nonlinear species".
@@ -604,9 +615,6 @@ class FileParser {
                                         const std::string& key,
                                         const std::string& expected);
   std::optional<double> ReadEnergy(const YAML::Node& value, const std::string& key);
-  std::optional<std::vector<double>> ReadPositiveList(const YAML::Node& value,
-                                                      const std::string& key,
-                                                      const std::string& what);
   bool IsSequence(const YAML::Node& value, const std::string& key, const std::string& expected) {
     if (value.IsSequence()) return true;
     Fail(value, key, Describe(value), expected);
@@ -614,6 +622,17 @@ class FileParser {
   }
 
   std::optional<Defaults> ReadDefaults(const YAML::Node& node);
+  // fit-objective, fit-extrapolation-guard and fit-error-scales of a defaults or species map,
+  // over what *request already holds (error scales merged key by key).
+  void ReadFitRequest(const Entries& entries, FitRequest* request);
+  // A list of rotational constants (to cm^-1) or moments of inertia (to amu angstrom^2), each a
+  // number with an optional unit.
+  std::optional<std::vector<double>> ReadRotationalList(const YAML::Node& value,
+                                                        const std::string& key,
+                                                        bool moments);
+  void ReadSpinMultiplicity(const Entry& entry, const Entries& entries, Species* species);
+  // Kramers: an odd-electron species cannot have a single ground level.
+  void CheckKramers(const YAML::Node& label_node, const Entries& entries, const Species& species);
   // True when `root` is a map whose first key is the format key with the supported version;
   // else records why (also: a file of the first layout, with the way to convert it).
   bool CheckFormat(const YAML::Node& root);
@@ -792,24 +811,6 @@ std::optional<double> FileParser::ReadEnergy(const YAML::Node& value, const std:
   return energy;
 }
 
-std::optional<std::vector<double>> FileParser::ReadPositiveList(const YAML::Node& value,
-                                                                const std::string& key,
-                                                                const std::string& what) {
-  if (!IsSequence(value, key, "a list of positive " + what)) return std::nullopt;
-  std::vector<double> numbers;
-  bool ok = true;
-  for (std::size_t i = 0; i < value.size(); ++i) {
-    const std::optional<double> number =
-        ReadPositive(value[i], key + "[" + std::to_string(i) + "]", what);
-    if (number) {
-      numbers.push_back(*number);
-    } else {
-      ok = false;
-    }
-  }
-  if (!ok) return std::nullopt;
-  return numbers;
-}
 
 std::optional<double> FileParser::ReadStandardPressure(const YAML::Node& value,
                                                        const std::string& key) {
@@ -913,6 +914,7 @@ std::optional<Defaults> FileParser::ReadDefaults(const YAML::Node& node) {
   if (entries) {
     if (const Entry* entry = entries->Find("fit-temperatures")) {
       ReadTemperatures(entry->value, "fit-temperatures", &defaults.temperatures);
+      if (entry->value.IsMap() && entry->value["mid"]) defaults.fit_request.mid_given = true;
     }
     if (const Entry* entry = entries->Find("standard-pressure")) {
       if (const auto pressure_pa = ReadStandardPressure(entry->value, "standard-pressure")) {
@@ -922,6 +924,7 @@ std::optional<Defaults> FileParser::ReadDefaults(const YAML::Node& node) {
     if (const Entry* entry = entries->Find("fit-thresholds")) {
       ReadThresholds(entry->value, "fit-thresholds", &defaults.thresholds);
     }
+    ReadFitRequest(*entries, &defaults.fit_request);
   }
   context_.clear();
   return defaults;
@@ -1047,10 +1050,7 @@ void FileParser::ReadRotation(const YAML::Node& block,
   const Entry* explicit_entry = constants_entry ? constants_entry : moments_entry;
   if (explicit_entry) {
     const bool moments = explicit_entry == moments_entry;
-    const auto values = ReadPositiveList(
-        explicit_entry->value,
-        explicit_entry->key,
-        moments ? "moment of inertia in amu*angstrom^2" : "rotational constant in cm^-1");
+    const auto values = ReadRotationalList(explicit_entry->value, explicit_entry->key, moments);
     if (values && values->size() != num_expected) {
       Fail(explicit_entry->value, explicit_entry->key, NumberList(*values), count_rule);
     } else if (values) {
@@ -1391,8 +1391,8 @@ void FileParser::ReadDiatomic(const Entry& entry,
   if (const Entry* levels = entries.Find("electronic-levels")) {
     Fail(levels->key_node,
          "electronic-levels",
-         "given together with the list form of diatomic-constants",
-         "the electronic states only in diatomic-constants (energy, degeneracy)");
+         "given together with the list form of rovibrational-constants",
+         "the electronic states only in rovibrational-constants (energy, degeneracy)");
   }
   std::vector<DiatomicState> states;
   bool ok = true;
@@ -1652,6 +1652,174 @@ void FileParser::ReadTorsions(const Entry& entry,
   if (all_ok) species->torsions = torsions;
 }
 
+void FileParser::ReadFitRequest(const Entries& entries, FitRequest* request) {
+  if (const Entry* entry = entries.Find("fit-objective")) {
+    const std::string expected = "minimax or least-squares";
+    const auto text = ReadString(entry->value, entry->key, expected);
+    const std::optional<FitObjective> objective = text ? ParseFitObjective(*text) : std::nullopt;
+    if (objective) {
+      request->objective = objective;
+    } else if (text) {
+      Fail(entry->value, entry->key, Describe(entry->value), expected);
+    }
+  }
+  if (const Entry* entry = entries.Find("fit-extrapolation-guard")) {
+    const std::string expected =
+        "off, or FACTOR:BAND such as 1.25:0.2 (1 < FACTOR <= 4, 0 < BAND <= 1)";
+    const auto text = ReadString(entry->value, entry->key, expected);
+    const std::optional<ExtrapolationGuard> guard =
+        text ? ParseExtrapolationGuard(*text) : std::nullopt;
+    if (guard) {
+      request->extrapolation_guard = guard;
+    } else if (text) {
+      Fail(entry->value, entry->key, Describe(entry->value), expected);
+    }
+  }
+  if (const Entry* entry = entries.Find("fit-error-scales")) {
+    const std::optional<Entries> scales = ReadEntries(entry->value, entry->key, kThresholdKeys);
+    if (!scales) return;
+    ErrorScales merged = request->error_scales.value_or(ErrorScales{});
+    bool ok = true;
+    const std::pair<const char*, double*> fields[] = {{"cp", &merged.cp_relative},
+                                                      {"enthalpy", &merged.h_over_rt},
+                                                      {"entropy", &merged.s_over_r}};
+    for (const auto& [name, field] : fields) {
+      if (const Entry* scale = scales->Find(name)) {
+        const auto value = ReadPositive(scale->value, entry->key + "." + name, "dimensionless weight");
+        if (value) {
+          *field = *value;
+        } else {
+          ok = false;
+        }
+      }
+    }
+    if (ok) request->error_scales = merged;
+  }
+}
+
+std::optional<std::vector<double>> FileParser::ReadRotationalList(const YAML::Node& value,
+                                                                  const std::string& key,
+                                                                  bool moments) {
+  // Unit factors to the stored unit: cm^-1 for constants (a frequency nu in Hz is
+  // B = nu / (100 c) cm^-1), amu angstrom^2 for moments.
+  struct Unit {
+    const char* name;
+    double factor;
+  };
+  constexpr double kHzToCm1 = 1.0 / (100.0 * constants::kSpeedOfLight);
+  static const Unit kConstantUnits[] = {{"cm^-1", 1.0}, {"GHz", 1.0e9 * kHzToCm1},
+                                        {"MHz", 1.0e6 * kHzToCm1}};
+  static const Unit kMomentUnits[] = {{"amu*A^2", 1.0},
+                                      {"amu A^2", 1.0},
+                                      {"amu*angstrom^2", 1.0},
+                                      {"kg*m^2", 1.0 / constants::kAmuAngstrom2},
+                                      {"kg m^2", 1.0 / constants::kAmuAngstrom2}};
+  const std::string what = moments ? "moment of inertia (a number in amu*A^2, or with one of "
+                                     "the units amu*A^2, kg*m^2)"
+                                   : "rotational constant (a number in cm^-1, or with one of the "
+                                     "units cm^-1, GHz, MHz)";
+  if (!IsSequence(value, key, "a list of positive values, each a " + what)) return std::nullopt;
+  std::vector<double> numbers;
+  bool ok = true;
+  for (std::size_t i = 0; i < value.size(); ++i) {
+    const YAML::Node item = value[i];
+    const std::string item_key = key + "[" + std::to_string(i) + "]";
+    std::optional<double> number;
+    if (item.IsScalar()) {
+      const std::string& text = item.Scalar();
+      number = ParsePlainNumber(text);
+      if (!number) {
+        const std::size_t split = text.find_first_of(" akgcGM");
+        const std::optional<double> magnitude =
+            split == std::string::npos ? std::nullopt : ParsePlainNumber(text.substr(0, split));
+        std::string unit = split == std::string::npos ? "" : text.substr(split);
+        unit.erase(0, unit.find_first_not_of(' '));
+        if (magnitude) {
+          const Unit* begin = moments ? std::begin(kMomentUnits) : std::begin(kConstantUnits);
+          const Unit* end = moments ? std::end(kMomentUnits) : std::end(kConstantUnits);
+          for (const Unit* known = begin; known != end; ++known) {
+            if (unit == known->name) number = *magnitude * known->factor;
+          }
+        }
+      }
+    }
+    if (!number || !std::isfinite(*number)) {
+      Fail(item, item_key, Describe(item), "a positive " + what);
+      ok = false;
+    } else if (*number <= 0.0) {
+      Fail(item, item_key, Describe(item) + " is not positive", "a positive " + what);
+      ok = false;
+    } else {
+      numbers.push_back(*number);
+    }
+  }
+  if (!ok) return std::nullopt;
+  return numbers;
+}
+
+void FileParser::ReadSpinMultiplicity(const Entry& entry, const Entries& entries, Species* species) {
+  if (entries.Find("electronic-levels")) {
+    Fail(entry.key_node,
+         entry.key,
+         "given together with electronic-levels (its first level is the ground level)",
+         "only one of the two: spin-multiplicity is a single ground level of degeneracy 2S+1");
+    return;
+  }
+  if (const Entry* states = entries.Find("rovibrational-constants");
+      states && states->value.IsSequence()) {
+    Fail(entry.key_node,
+         entry.key,
+         "given together with the list form of rovibrational-constants",
+         "the ground-state degeneracy only in rovibrational-constants[0].degeneracy");
+    return;
+  }
+  const auto multiplicity = ReadInteger(entry.value, entry.key, "a whole number 2S+1 of at least 1");
+  if (!multiplicity) return;
+  if (*multiplicity < 1 || *multiplicity > kMaxDegeneracy) {
+    Fail(entry.value,
+         entry.key,
+         std::to_string(*multiplicity),
+         "a whole number 2S+1 within [1, " + Number(kMaxDegeneracy) + "]");
+    return;
+  }
+  species->electronic_levels = {ElectronicLevel{0.0, static_cast<double>(*multiplicity)}};
+}
+
+void FileParser::CheckKramers(const YAML::Node& label_node,
+                              const Entries& entries,
+                              const Species& species) {
+  const int electrons = species.NumElectrons();
+  if (electrons % 2 == 0 || species.electronic_levels.empty() ||
+      species.electronic_levels.front().degeneracy != 1.0) {
+    return;
+  }
+  // Point at what set the ground level: the explicit level, the multiplicity, or the label.
+  YAML::Node at = label_node;
+  std::string key = "electronic-levels";
+  std::string how = "(by default)";
+  if (const Entry* levels = entries.Find("electronic-levels");
+      levels && levels->value.IsSequence() && levels->value.size() > 0) {
+    at = levels->value[0];
+    key = "electronic-levels[0]";
+    how = "(given)";
+  } else if (const Entry* multiplicity = entries.Find("spin-multiplicity")) {
+    at = multiplicity->value;
+    key = "spin-multiplicity";
+    how = "(given)";
+  } else if (const Entry* states = entries.Find("rovibrational-constants");
+             states && states->value.IsSequence() && states->value.size() > 0) {
+    at = states->value[0];
+    key = "rovibrational-constants[0].degeneracy";
+  }
+  Fail(at,
+       key,
+       "ground-level degeneracy 1 " + how + " for a species of " + std::to_string(electrons) +
+           " electrons (an odd number: by Kramers' theorem every level is at least doubly "
+           "degenerate)",
+       "an odd-electron species needs its ground-state degeneracy: add electronic-levels or "
+       "spin-multiplicity (2 for a doublet radical such as CH3)");
+}
+
 bool FileParser::CheckFormat(const YAML::Node& root) {
   const std::string format_line = std::string(kFormatKey) + ": " + std::to_string(kFormatVersion);
   if (!root.IsMap()) {
@@ -1732,6 +1900,7 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& label_node,
   species.temperatures = defaults.temperatures;
   species.standard_pressure_pa = defaults.pressure_pa;
   species.thresholds = defaults.thresholds;
+  species.fit_request = defaults.fit_request;
 
   bool composition_ok = false;
   if (const Entry* entry = entries.Find("formula")) {
@@ -1740,20 +1909,33 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& label_node,
     Fail(label_node, "formula", "missing", "a chemical formula such as CH4, C2H5OH or HCO+");
   }
 
-  if (const Entry* entry = entries.Find("formation-enthalpy")) {
-    if (const auto h = ReadEnergy(entry->value, "formation-enthalpy")) {
+  const Entry* enthalpy_298 = entries.Find("formation-enthalpy");
+  const Entry* enthalpy_0 = entries.Find("formation-enthalpy-0k");
+  if (enthalpy_298 && enthalpy_0) {
+    Fail(enthalpy_0->key_node,
+         "formation-enthalpy-0k",
+         "given together with formation-enthalpy",
+         "only one of the two (the 298.15 K value is derived from the 0 K one)");
+  } else if (enthalpy_298 || enthalpy_0) {
+    const Entry* entry = enthalpy_298 ? enthalpy_298 : enthalpy_0;
+    if (const auto h = ReadEnergy(entry->value, entry->key)) {
       if (std::fabs(*h) > kMaxFormationEnthalpyJPerMol) {
         Fail(entry->value,
-             "formation-enthalpy",
+             entry->key,
              Describe(entry->value),
              "a formation enthalpy of magnitude at most " +
                  Number(kMaxFormationEnthalpyJPerMol * 1.0e-3) + " kJ/mol");
-      } else {
+      } else if (enthalpy_298) {
         species.formation_enthalpy_j_per_mol = *h;
+      } else {
+        species.formation_enthalpy_0k_j_per_mol = *h;
       }
     }
   } else {
-    Fail(label_node, "formation-enthalpy", "missing", "the enthalpy of formation at 298.15 K");
+    Fail(label_node,
+         "formation-enthalpy",
+         "missing",
+         "the enthalpy of formation at 298.15 K (or formation-enthalpy-0k, at 0 K)");
   }
 
   bool shape_ok = false;
@@ -1813,6 +1995,9 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& label_node,
   // Electronic levels first: the map form of diatomic-constants takes the ground degeneracy.
   const Entry* levels_entry = entries.Find("electronic-levels");
   if (levels_entry) ReadElectronicLevels(levels_entry->value, &species);
+  if (const Entry* entry = entries.Find("spin-multiplicity")) {
+    ReadSpinMultiplicity(*entry, entries, &species);
+  }
   if (diatomic_entry) ReadDiatomic(*diatomic_entry, entries, composition_ok, shape_ok, &species);
   const bool has_diatomic = diatomic_entry != nullptr;
 
@@ -1854,7 +2039,9 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& label_node,
   }
   if (const Entry* entry = entries.Find("fit-temperatures")) {
     ReadTemperatures(entry->value, "fit-temperatures", &species.temperatures);
+    if (entry->value.IsMap() && entry->value["mid"]) species.fit_request.mid_given = true;
   }
+  ReadFitRequest(entries, &species.fit_request);
   if (const Entry* entry = entries.Find("standard-pressure")) {
     if (const auto pressure_pa = ReadStandardPressure(entry->value, "standard-pressure")) {
       species.standard_pressure_pa = *pressure_pa;
@@ -1870,6 +2057,7 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& label_node,
     ReadTorsions(*entry, shape_ok, vibrations_ok && composition_ok, &species);
   }
 
+  if (problems_->size() == before && composition_ok) CheckKramers(label_node, entries, species);
   if (problems_->size() != before) return std::nullopt;
   std::string canonical = "sevenfold species v3\n";
   AppendCanonical(label_node, &canonical);

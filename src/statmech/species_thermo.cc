@@ -1,6 +1,8 @@
 // SPDX-License-Identifier: MIT
 #include "statmech/species_thermo.h"
 
+#include "statmech/formation_enthalpy.h"
+
 #include <cmath>
 #include <optional>
 #include <string>
@@ -203,7 +205,19 @@ SpeciesThermo::SpeciesThermo(const Species& species, double highest_temperature_
 
   model.h298_minus_h0_j_per_mol =
       model.EnthalpyAboveZero(model.TotalMoments(kReferenceTemperature), kReferenceTemperature);
+  // The one place a formation enthalpy given at 0 K becomes the 298.15 K value (the species
+  // module cannot do it: it needs this model's H(298.15) - H(0)).
+  if (species.formation_enthalpy_0k_j_per_mol) {
+    model.formation_enthalpy_j_per_mol = FormationEnthalpy298FromZeroK(
+        species, *species.formation_enthalpy_0k_j_per_mol, model.h298_minus_h0_j_per_mol);
+  }
 }
+
+double SpeciesThermo::FormationEnthalpy298JPerMol() const {
+  return model_->formation_enthalpy_j_per_mol;
+}
+
+double SpeciesThermo::H298MinusH0JPerMol() const { return model_->h298_minus_h0_j_per_mol; }
 
 SpeciesThermo::~SpeciesThermo() = default;
 SpeciesThermo::SpeciesThermo(SpeciesThermo&&) noexcept = default;
