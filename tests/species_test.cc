@@ -288,6 +288,7 @@ TEST_CASE("a full example file is read into species with every field filled", "[
   REQUIRE(ethane.torsions.size() == 1);
   const Torsion& torsion = ethane.torsions[0];
   CHECK(torsion.replaces_cm1 == 289.0);
+  CHECK(torsion.mode_index == 3);  // 289 is the fourth vibration listed
   CHECK(torsion.symmetry == 3);
   CHECK_THAT(torsion.rotational_constant_cm1,
              WithinRel(constants::kRotationalConstantTimesInertia / 1.57, kReadRelativeTolerance));
@@ -961,6 +962,7 @@ void CheckSameSpecies(const Species& a, const Species& b) {
   REQUIRE(a.torsions.size() == b.torsions.size());
   for (std::size_t i = 0; i < a.torsions.size(); ++i) {
     CHECK(a.torsions[i].replaces_cm1 == b.torsions[i].replaces_cm1);
+    CHECK(a.torsions[i].mode_index == b.torsions[i].mode_index);
     CHECK(a.torsions[i].rotational_constant_cm1 == b.torsions[i].rotational_constant_cm1);
     CHECK(a.torsions[i].symmetry == b.torsions[i].symmetry);
     CHECK(a.torsions[i].fourier_j_per_mol == b.torsions[i].fourier_j_per_mol);

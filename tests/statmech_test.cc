@@ -973,6 +973,7 @@ Species Ethane(bool hindered) {
   if (hindered) {
     Torsion torsion;
     torsion.replaces_cm1 = 289;
+    torsion.mode_index = 3;  // nu4 in the list below
     torsion.rotational_constant_cm1 = constants::kRotationalConstantTimesInertia / 1.6;
     torsion.symmetry = 3;
     torsion.fourier_j_per_mol = {{3, 12000.0}};
@@ -1000,13 +1001,20 @@ TEST_CASE("ethane with a hindered torsion matches its tabulated Cp and S at 298.
   CHECK(RelativeDifference(harmonic.cp_j_per_mol_k, 52.49) > 0.015);
 }
 
-TEST_CASE("a torsion naming a wavenumber no vibration has is refused", "[statmech]") {
+TEST_CASE("a torsion without a resolved mode index is refused", "[statmech]") {
   Species ethane = Ethane(true);
-  ethane.torsions[0].replaces_cm1 = 300.0;
   ethane.location = {"species/c2h6.yaml", 7, 3};
-  REQUIRE_THROWS_WITH(SpeciesThermo(ethane), Catch::Contains("species/c2h6.yaml:7:3") &&
-                                                 Catch::Contains("C2H6") &&
-                                                 Catch::Contains("300"));
+  for (const int index : {-1, 18}) {
+    ethane.torsions[0].mode_index = index;
+    REQUIRE_THROWS_WITH(SpeciesThermo(ethane), Catch::Contains("species/c2h6.yaml:7:3") &&
+                                                   Catch::Contains("C2H6") &&
+                                                   Catch::Contains("mode index " +
+                                                                   std::to_string(index)));
+  }
+  // Two torsions cannot take the same mode.
+  Species twice = Ethane(true);
+  twice.torsions.push_back(twice.torsions[0]);
+  REQUIRE_THROWS_WITH(SpeciesThermo(twice), Catch::Contains("torsion 1"));
 }
 
 TEST_CASE("models beyond the rigid rotor are finite and continuous from 10 K to 20000 K",

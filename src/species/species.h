@@ -74,7 +74,11 @@ struct NuclearSpin {
 
 // A 1-D hindered internal rotor replacing one harmonic mode.
 struct Torsion {
-  double replaces_cm1 = 0.0;            // wavenumber of the vibration it replaces
+  double replaces_cm1 = 0.0;            // wavenumber of the vibration it replaces, as written
+  // Index into Species::vibrations_cm1 of the mode it replaces, resolved once by the reader
+  // (within its stated tolerance, docs/species-schema.md); -1 when unresolved. The engine uses
+  // this index and never matches wavenumbers itself.
+  int mode_index = -1;
   double rotational_constant_cm1 = 0.0; // B = h / (8 pi^2 c I_red); from reduced-moment if given
   int symmetry = 1;                     // torsional symmetry number n
   // V(phi) = sum_k V_k / 2 (1 - cos k phi), J/mol. A plain barrier V0 is the single term k = n.

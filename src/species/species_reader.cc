@@ -1520,6 +1520,7 @@ void FileParser::ReadTorsions(const Entry& entry,
           }
           if (match) {
             replaced[*match] = true;
+            torsion.mode_index = static_cast<int>(*match);
           } else {
             Fail(replaces->value,
                  key + ".replaces",
