@@ -26,104 +26,27 @@
 #include "core/units.h"
 #include "species/formula.h"
 #include "species/geometry.h"
+#include "species/species_schema.h"
 
 namespace sevenfold {
 namespace {
 
 // More problems than this are summarised in one closing line: beyond it the list stops helping.
 constexpr std::size_t kMaxReportedProblems = 100;
-// Temperatures of the fit ranges must lie in this band, kelvin. Below 10 K hardly any gas exists
-// as an ideal gas and the polynomial form is useless; above 20000 K ionisation dominates and the
-// single-species model no longer holds (common practice).
-constexpr double kMinTemperatureK = 10.0;
-constexpr double kMaxTemperatureK = 20000.0;
-// Rotational constants given next to a geometry must agree with it within 1 %: equilibrium
-// geometries and ground-state constants differ by vibration-rotation terms of this order or less.
-constexpr double kGeometryConstantsRelativeTolerance = 0.01;
-// A torsion's `replaces` must equal a listed vibration; input written to 0.1 cm^-1 rounds by at
-// most 0.05 cm^-1.
-constexpr double kTorsionMatchToleranceCm1 = 0.05;
-// Standard pressures accepted: the two conventions, within rounding of the written value.
-constexpr double kPressureRelativeTolerance = 1.0e-9;
+using namespace schema;  // the bands and tolerances (species/species_schema.h)
 
-// Plausibility bands. Values outside them are typing mistakes or hostile input, and some of them
-// drive the statistical-mechanics engine into overflow (NaN or inf results) or into sums that
-// never end (docs/robustness.md lists the cases). Each band is wide around what real molecules
-// show; none of them bites on a real species.
-// Rotational constants (also torsional ones), cm^-1: H2 has the largest of any molecule,
-// B_e = 60.85 cm^-1 (Huber & Herzberg 1979, from memory); C60 is near 0.0028 cm^-1 (from memory).
-constexpr double kMinRotationalConstantCm1 = 1.0e-6;
-constexpr double kMaxRotationalConstantCm1 = 1.0e3;
-// Harmonic wavenumbers, cm^-1: the highest is H2's 4401 cm^-1 (Huber & Herzberg 1979, from
-// memory); a mode below 1 cm^-1 is numerical noise of a frequency calculation (common practice).
-constexpr double kMinWavenumberCm1 = 1.0;
-constexpr double kMaxWavenumberCm1 = 1.0e4;
-// Frequency scale factors in use lie between about 0.85 and 1.1 (common practice).
-constexpr double kMinFrequencyScale = 0.5;
-constexpr double kMaxFrequencyScale = 2.0;
-// Dunham-type constants, cm^-1 (magnitude): the strongest bond, CO, has D_0 near 89,500 cm^-1
-// (11.1 eV, from memory); every other constant is far smaller.
-constexpr double kMaxSpectroscopicConstantCm1 = 1.0e5;
-// De / Be above which a diatomic's constants are refused (see ReadDiatomicState).
-constexpr double kMaxCentrifugalToRotational = 1.0e-2;
-// Degeneracies (electronic levels, nuclear-spin weights): lumped atomic manifolds reach a few
-// hundred (common practice).
-constexpr double kMaxDegeneracy = 1.0e6;
-// |formation enthalpy|, J/mol: gas-phase ions of light elements reach about 1e4 kJ/mol
-// (He2+: 7.6e3 kJ/mol from its ionisation energies, from memory).
-constexpr double kMaxFormationEnthalpyJPerMol = 1.0e8;
-// Torsional barriers and Fourier terms, J/mol: real barriers are below about 100 kJ/mol
-// (common practice); far above, the mode is a vibration, not a torsion.
-constexpr double kMaxTorsionBarrierJPerMol = 1.0e6;
-// |coordinate| in a geometry, angstrom: molecules are nanometres across.
-constexpr double kMaxCoordinateAngstrom = 1.0e3;
 
-// The first key of every species file: the format's name, with the layout version as its value.
-constexpr std::string_view kFormatKey = "sevenfold-species";
-constexpr int kFormatVersion = 2;
-// Tells the reader of a file in an older layout how to convert it.
-constexpr const char* kUpgradeHint =
-    "convert the file with scripts/upgrade-species-file.py (docs/species-schema.md)";
-
-const std::vector<std::string> kTopKeys = {std::string(kFormatKey), "defaults", "species"};
-const std::vector<std::string> kDefaultsKeys = {"fit-temperatures",
-                                                "standard-pressure",
-                                                "fit-thresholds",
-                                                "fit-objective",
-                                                "fit-extrapolation-guard",
-                                                "fit-error-scales"};
-const std::vector<std::string> kSpeciesKeys = {"formula",
-                                               "formation-enthalpy",
-                                               "formation-enthalpy-0k",
-                                               "shape",
-                                               "symmetry-number",
-                                               "rotational-constants",
-                                               "moments-of-inertia",
-                                               "structure",
-                                               "vibrations",
-                                               "frequency-scale",
-                                               "electronic-levels",
-                                               "spin-multiplicity",
-                                               "optical-isomers",
-                                               "centrifugal-distortion",
-                                               "fit-temperatures",
-                                               "standard-pressure",
-                                               "fit-thresholds",
-                                               "fit-objective",
-                                               "fit-extrapolation-guard",
-                                               "fit-error-scales",
-                                               "rovibrational-constants",
-                                               "spin-statistics",
-                                               "hindered-rotors"};
-const std::vector<std::string> kTemperatureKeys = {"low", "mid", "high"};
-const std::vector<std::string> kThresholdKeys = {"cp", "enthalpy", "entropy"};
-const std::vector<std::string> kDiatomicKeys = {
-    "we", "wexe", "weye", "Be", "alphae", "gammae", "De", "dissociation-energy"};
-const std::vector<std::string> kDiatomicStateKeys = {
-    "energy", "degeneracy", "we", "wexe", "weye", "Be", "alphae", "gammae", "De", "dissociation-energy"};
-const std::vector<std::string> kNuclearSpinKeys = {"even-j", "odd-j", "mixture"};
-const std::vector<std::string> kTorsionKeys = {
-    "replaces", "reduced-moment", "rotational-constant", "symmetry-number", "barrier-height", "cosine-terms"};
+// Allowed keys per map, in the order messages list them: from the key table.
+const std::vector<std::string>& kTopKeys = KeysOf(KeySection::kTop);
+const std::vector<std::string>& kDefaultsKeys = KeysOf(KeySection::kDefaults);
+const std::vector<std::string>& kSpeciesKeys = KeysOf(KeySection::kSpecies);
+const std::vector<std::string>& kTemperatureKeys = KeysOf(KeySection::kFitTemperatures);
+const std::vector<std::string>& kThresholdKeys = KeysOf(KeySection::kFitThresholds);
+const std::vector<std::string>& kErrorScaleKeys = KeysOf(KeySection::kFitErrorScales);
+const std::vector<std::string>& kDiatomicKeys = KeysOf(KeySection::kRovibrationalMap);
+const std::vector<std::string>& kDiatomicStateKeys = KeysOf(KeySection::kRovibrationalState);
+const std::vector<std::string>& kNuclearSpinKeys = KeysOf(KeySection::kSpinStatistics);
+const std::vector<std::string>& kTorsionKeys = KeysOf(KeySection::kHinderedRotor);
 
 std::string JoinWords(const std::vector<std::string>& words) {
   std::string text;
@@ -1677,7 +1600,7 @@ void FileParser::ReadFitRequest(const Entries& entries, FitRequest* request) {
     }
   }
   if (const Entry* entry = entries.Find("fit-error-scales")) {
-    const std::optional<Entries> scales = ReadEntries(entry->value, entry->key, kThresholdKeys);
+    const std::optional<Entries> scales = ReadEntries(entry->value, entry->key, kErrorScaleKeys);
     if (!scales) return;
     ErrorScales merged = request->error_scales.value_or(ErrorScales{});
     bool ok = true;
