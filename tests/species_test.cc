@@ -7,6 +7,7 @@
 
 #include <algorithm>
 #include <catch2/catch.hpp>
+#include <fmt/format.h>
 #include <cmath>
 #include <cstdlib>
 #include <filesystem>
@@ -22,6 +23,8 @@
 #include "species/formula.h"
 #include "species/geometry.h"
 #include "species/species_reader.h"
+#include "species/species_schema.h"
+#include "fit/fitter.h"
 #include "run_binary.h"
 
 namespace sevenfold {
@@ -1441,6 +1444,79 @@ TEST_CASE("the upgrade script turns first-layout files into files with identical
   CHECK(upgrade(unknown, refused_path) == 2);
   CHECK_THAT(testing::ReadWhole(dir.Path("upgrade.err")), Contains("unknown key 'colour'"));
   CHECK_FALSE(std::filesystem::exists(refused_path));
+}
+
+namespace {
+
+// A markdown table row's cells, trimmed, without the outer bars; empty for other lines.
+std::vector<std::string> Cells(const std::string& line) {
+  std::vector<std::string> cells;
+  if (line.size() < 2 || line.front() != '|') return cells;
+  std::size_t start = 1;
+  while (start < line.size()) {
+    const std::size_t bar = line.find('|', start);
+    if (bar == std::string::npos) break;
+    std::string cell = line.substr(start, bar - start);
+    cell.erase(0, cell.find_first_not_of(' '));
+    cell.erase(cell.find_last_not_of(' ') + 1);
+    cells.push_back(cell);
+    start = bar + 1;
+  }
+  return cells;
+}
+
+std::string KeyRow(const KeySpec& spec) {
+  std::string row = "| " + ToString(spec.section) + " | `" + spec.key + "` |";
+  for (const std::string* cell : {&spec.kind, &spec.unit, &spec.band, &spec.applies_to,
+                                  &spec.required, &spec.default_value}) {
+    row += cell->empty() ? " |" : " " + *cell + " |";
+  }
+  return row;
+}
+
+}  // namespace
+
+// docs/species-schema.md's key reference is the key table, row for row: every key, unit, band,
+// default and tolerance the docs state is the one the reader applies (the table renders bands
+// and defaults from the constants and default values the code uses).
+TEST_CASE("the documented keys, bands, defaults and tolerances are the code's", "[species]") {
+  const std::string docs =
+      testing::ReadWhole(std::string(SEVENFOLD_SOURCE_DIR) + "/docs/species-schema.md");
+  const std::size_t start = docs.find("\n## Key reference\n");
+  REQUIRE(start != std::string::npos);
+  std::istringstream lines(docs.substr(start));
+  std::vector<std::string> documented;
+  for (std::string line; std::getline(lines, line);) {
+    if (line.rfind("## ", 0) == 0 && !documented.empty()) break;
+    const std::vector<std::string> cells = Cells(line);
+    if (cells.size() != 8 || cells[0] == "section" || cells[0].rfind("---", 0) == 0) continue;
+    documented.push_back(line);
+  }
+  std::string expected;
+  for (const KeySpec& spec : KeyTable()) expected += KeyRow(spec) + "\n";
+  INFO("docs/species-schema.md, key reference rows expected:\n" << expected);
+  REQUIRE(documented.size() == KeyTable().size());
+  for (std::size_t i = 0; i < documented.size(); ++i) {
+    CHECK(Cells(documented[i]) == Cells(KeyRow(KeyTable()[i])));
+  }
+  // The default objective of the table is the fitter's.
+  CHECK(ToString(FitOptions{}.objective) == ToString(FitObjective::kMinimax));
+  // The accepted elements are listed as the element table has them.
+  std::string elements = "Elements accepted in formulas:";
+  for (const std::string& symbol : KnownElementSymbols()) elements += " " + symbol;
+  CHECK_THAT(docs, Contains(elements + ".\n"));
+  // docs/theory.md states the torsion tolerance the reader applies.
+  const std::string theory =
+      testing::ReadWhole(std::string(SEVENFOLD_SOURCE_DIR) + "/docs/theory.md");
+  CHECK_THAT(theory, Contains(fmt::format("within {} cm⁻¹ of the torsion's `replaces`",
+                                          schema::kTorsionMatchToleranceCm1)));
+  CHECK_THAT(docs, Contains(fmt::format("within {} cm^-1", schema::kTorsionMatchToleranceCm1)));
+  // The complete example reads, every species of it.
+  const std::size_t example = docs.find("```yaml\n", docs.find("## Complete example"));
+  REQUIRE(example != std::string::npos);
+  const std::size_t begin = example + 8;
+  const std::string text = docs.substr(begin, docs.find("```", begin) - begin);
+  CHECK(ReadSpeciesText(text, "example.yaml").size() == 9);
 }
 
 }  // namespace sevenfold

@@ -53,7 +53,7 @@ std::vector<KeySpec> BuildTable() {
        Triple(scales.cp_relative, scales.h_over_rt, scales.s_over_r)},
 
       {S::kSpecies, "formula", "chemical formula", "", 
-       fmt::format("at most {} atoms per element, |charge| at most {}", kMaxAtomsPerElement,
+       fmt::format("at most {} atoms per element, charge magnitude at most {}", kMaxAtomsPerElement,
                    kMaxFormulaCharge),
        "all", "yes", ""},
       {S::kSpecies, "formation-enthalpy", "molar energy", "kJ/mol; kcal/mol, J/mol, eV, cm^-1",
