@@ -1516,7 +1516,7 @@ TEST_CASE("the documented keys, bands, defaults and tolerances are the code's", 
   REQUIRE(example != std::string::npos);
   const std::size_t begin = example + 8;
   const std::string text = docs.substr(begin, docs.find("```", begin) - begin);
-  CHECK(ReadSpeciesText(text, "example.yaml").size() == 9);
+  CHECK(ReadSpeciesText(text, "example.yaml").size() == 8);
 }
 
 }  // namespace sevenfold
