@@ -25,8 +25,12 @@
 #include "core/parallel.h"
 #include "core/units.h"
 #include "species/formula.h"
+#include "species/canonical.h"
+#include "species/file_text.h"
 #include "species/geometry.h"
+#include "species/item_split.h"
 #include "species/species_schema.h"
+#include "species/text_checks.h"
 
 namespace sevenfold {
 namespace {
@@ -34,6 +38,13 @@ namespace {
 // More problems than this are summarised in one closing line: beyond it the list stops helping.
 constexpr std::size_t kMaxReportedProblems = 100;
 using namespace schema;  // the bands and tolerances (species/species_schema.h)
+using detail::AppendCanonical;
+using detail::BadByte;
+using detail::DefaultsCanonical;
+using detail::FindBadByte;
+using detail::SecondDocumentLine;
+using detail::SpeciesItemsSplit;
+using detail::SplitSpeciesItems;
 
 
 // Allowed keys per map, in the order messages list them: from the key table.
@@ -181,296 +192,6 @@ std::string ShapeCountRule(Shape shape, int num_atoms) {
              std::to_string(num_atoms) + " atoms)";
   }
   return "";
-}
-
-// The first byte of `text` that is not valid UTF-8 or is a control character YAML forbids
-// (C0 controls other than tab, line feed and carriage return, and DEL), with its 1-based line and
-// column (columns count characters). nullopt when the whole text is clean. YAML streams are
-// Unicode (YAML 1.2, section 5.1); yaml-cpp does not check this itself, and a name with broken
-// bytes would otherwise reach the entries file, which must be UTF-8.
-struct BadByte {
-  unsigned char byte = 0;
-  int line = 1;
-  int column = 1;
-  bool control = false;
-};
-std::optional<BadByte> FindBadByte(const std::string& text) {
-  BadByte at;
-  std::size_t i = 0;
-  while (i < text.size()) {
-    const unsigned char lead = static_cast<unsigned char>(text[i]);
-    at.byte = lead;
-    if (lead < 0x80) {
-      if ((lead < 0x20 && lead != '\t' && lead != '\n' && lead != '\r') || lead == 0x7f) {
-        at.control = true;
-        return at;
-      }
-      ++i;
-      if (lead == '\n') {
-        ++at.line;
-        at.column = 1;
-      } else {
-        ++at.column;
-      }
-      continue;
-    }
-    // Well-formed sequences per the Unicode Standard, table 3-7: no overlong forms, no
-    // surrogates, nothing above U+10FFFF.
-    int length = 0;
-    unsigned char second_min = 0x80, second_max = 0xbf;
-    if (lead >= 0xc2 && lead <= 0xdf) {
-      length = 2;
-    } else if (lead >= 0xe0 && lead <= 0xef) {
-      length = 3;
-      if (lead == 0xe0) second_min = 0xa0;
-      if (lead == 0xed) second_max = 0x9f;
-    } else if (lead >= 0xf0 && lead <= 0xf4) {
-      length = 4;
-      if (lead == 0xf0) second_min = 0x90;
-      if (lead == 0xf4) second_max = 0x8f;
-    } else {
-      return at;
-    }
-    if (i + length > text.size()) return at;
-    for (int k = 1; k < length; ++k) {
-      const unsigned char next = static_cast<unsigned char>(text[i + k]);
-      const unsigned char low = k == 1 ? second_min : 0x80, high = k == 1 ? second_max : 0xbf;
-      if (next < low || next > high) return at;
-    }
-    i += static_cast<std::size_t>(length);
-    ++at.column;
-  }
-  return std::nullopt;
-}
-
-// The 1-based line where a second YAML document starts, 0 when there is none: a line "---"
-// (alone or followed by a space) after a line with content, or a line with content after a
-// "..." end marker. Comments, blank lines and %-directives are not content.
-int SecondDocumentLine(const std::string& text) {
-  const auto is_marker = [](const std::string& line, const char* marker) {
-    return line.compare(0, 3, marker) == 0 &&
-           (line.size() == 3 || line[3] == ' ' || line[3] == '\t' || line[3] == '\r');
-  };
-  bool seen_content = false, ended = false;
-  int number = 0;
-  std::size_t start = 0;
-  while (start < text.size()) {
-    std::size_t end = text.find('\n', start);
-    if (end == std::string::npos) end = text.size();
-    const std::string line = text.substr(start, end - start);
-    start = end + 1;
-    ++number;
-    const std::size_t first = line.find_first_not_of(" \t\r");
-    if (first == std::string::npos || line[first] == '#' || line[0] == '%') continue;
-    if (is_marker(line, "---")) {
-      if (seen_content || ended) return number;
-      // "--- value": the document's content starts on this line.
-      const std::size_t rest = line.find_first_not_of(" \t\r", 3);
-      if (rest != std::string::npos && line[rest] != '#') seen_content = true;
-      continue;
-    }
-    if (is_marker(line, "...")) {
-      ended = true;
-      continue;
-    }
-    if (ended) return number;
-    seen_content = true;
-  }
-  return 0;
-}
-
-// Appends `text` as its byte count, a colon and the bytes, so no two sequences of texts collide.
-void AppendLengthPrefixed(const std::string& text, std::string* out) {
-  *out += std::to_string(text.size());
-  *out += ':';
-  *out += text;
-}
-
-// Appends a canonical form of `node` for the input digest: a type letter, then a scalar's
-// length-prefixed text, or a collection's item count followed by its items (maps: key, value, in
-// file order). Explicit tags enter it; comments, indentation, quoting and flow or block style do
-// not, so only content changes the digest. Aliases are written out in full; the node must have
-// passed validation, whose schema bounds its depth (no cycles reach here).
-void AppendCanonical(const YAML::Node& node, std::string* out) {
-  const std::string& tag = node.Tag();
-  if (!tag.empty() && tag != "?" && tag != "!") {
-    *out += '!';
-    AppendLengthPrefixed(tag, out);
-  }
-  switch (node.Type()) {
-    case YAML::NodeType::Undefined:
-      *out += 'u';
-      return;
-    case YAML::NodeType::Null:
-      *out += '~';
-      return;
-    case YAML::NodeType::Scalar:
-      *out += 's';
-      AppendLengthPrefixed(node.Scalar(), out);
-      return;
-    case YAML::NodeType::Sequence:
-      *out += 'l' + std::to_string(node.size()) + ':';
-      for (const YAML::Node& item : node) AppendCanonical(item, out);
-      return;
-    case YAML::NodeType::Map:
-      *out += 'm' + std::to_string(node.size()) + ':';
-      for (auto it = node.begin(); it != node.end(); ++it) {
-        AppendCanonical(it->first, out);
-        AppendCanonical(it->second, out);
-      }
-      return;
-  }
-}
-
-// The part of every species' digest that comes from the file's `defaults` node.
-std::string DefaultsCanonical(const YAML::Node& defaults) {
-  std::string canonical = "\ndefaults\n";
-  AppendCanonical(defaults, &canonical);
-  return canonical;
-}
-
-// The items of a species file's top-level `species:` block sequence, found by a cheap scan of the
-// text, and the rest of the file (the skeleton: top-level keys, `defaults`, comments). Parsing each
-// item on its own holds one small node tree at a time instead of the whole document's, and lets
-// items be parsed in parallel.
-struct SpeciesItemsSplit {
-  struct Item {
-    std::size_t begin = 0;  // byte range: the item's "- " line up to the next item's
-    std::size_t end = 0;
-    int first_line = 0;  // 0-based line of `begin` in the file
-  };
-  std::vector<Item> items;
-  std::string skeleton;
-};
-
-// True when text[pos, end) is only spaces, optionally followed by a comment after a space.
-bool OnlyComment(const std::string& text, std::size_t pos, std::size_t end) {
-  const std::size_t start = pos;
-  while (pos < end && text[pos] == ' ') ++pos;
-  return pos == end || (text[pos] == '#' && pos > start);
-}
-
-// Scans the content text[begin, end) of one line, carrying the flow-collection depth across lines.
-// False where the split cannot be sure of YAML's reading: a tab or carriage return, a quoted
-// scalar not closed on its line, a bracket that may be part of a plain scalar, or an indicator
-// with a meaning at the start of a token (anchor, alias, tag, block scalar, complex key, directive,
-// reserved). Brackets and indicators inside quotes or comments do not count.
-bool ScanLineForSplit(const std::string& text, std::size_t begin, std::size_t end, int* depth) {
-  char previous = ' ';
-  for (std::size_t i = begin; i < end; ++i) {
-    const char c = text[i];
-    // YAML starts a token (a node, a quoted scalar, a flow collection) only after these.
-    const bool token_start =
-        previous == ' ' || previous == '[' || previous == '{' || previous == ',' || previous == ':';
-    if (c == '\t' || c == '\r') return false;
-    if (c == '#' && previous == ' ') return true;  // a comment runs to the end of the line
-    if (token_start && (c == '"' || c == '\'')) {
-      std::size_t j = i + 1;
-      for (; j < end; ++j) {
-        if (text[j] == '\t' || text[j] == '\r') return false;
-        if (c == '"' && text[j] == '\\') {
-          ++j;  // an escaped character, possibly a quote
-        } else if (text[j] == c) {
-          if (c == '\'' && j + 1 < end && text[j + 1] == '\'') {
-            ++j;  // '' is a quote inside a single-quoted scalar
-          } else {
-            break;
-          }
-        }
-      }
-      if (j >= end) return false;
-      i = j;
-      previous = c;
-      continue;
-    }
-    if (c == '[' || c == '{') {
-      if (*depth == 0 && !token_start) return false;
-      ++*depth;
-    } else if (c == ']' || c == '}') {
-      if (*depth == 0) return false;
-      --*depth;
-    } else if (token_start && (c == '&' || c == '*' || c == '!' || c == '|' || c == '>' ||
-                               c == '?' || c == '@' || c == '`' || c == '%')) {
-      return false;
-    }
-    previous = c;
-  }
-  return true;
-}
-
-// The split of `text`, or nullopt unless the scan is sure of it. Sure means: a block-style
-// top-level map whose column-0 lines are only `defaults:`, `species:` (nothing after the colon),
-// a leading "---" and comments; the species value is a block sequence whose items start with "- "
-// at one indentation, every other line of the block indented deeper (or a comment); no flow
-// collection or quoted scalar spans an item boundary or a top-level key (ScanLineForSplit). A
-// wrong guess can only cut a multi-line construct, which makes the cut item fail to parse; the
-// caller then reads the whole document, so errors are reported exactly as before.
-std::optional<SpeciesItemsSplit> SplitSpeciesItems(const std::string& text) {
-  enum class Phase { kTop, kFirstItem, kItems };
-  Phase phase = Phase::kTop;
-  SpeciesItemsSplit split;
-  bool seen_content = false, seen_species = false, in_top_key = false;
-  int depth = 0;
-  std::size_t item_indent = 0, items_end = text.size();
-  int line = -1;
-  for (std::size_t next = 0; next < text.size();) {
-    ++line;
-    const std::size_t begin = next;
-    std::size_t end = text.find('\n', begin);
-    next = end == std::string::npos ? text.size() : end + 1;
-    if (end == std::string::npos) end = text.size();
-    if (end > begin && text[end - 1] == '\r') --end;
-    std::size_t first = begin;
-    while (first < end && text[first] == ' ') ++first;
-    if (first == end || text[first] == '#') continue;  // blank or comment: no effect on the split
-    const std::size_t indent = first - begin;
-    // An item is a label key of the species map: a line at the items' indentation.
-    const bool item_start = indent > 0 && text[first] != '-';
-    const int depth_before = depth;
-    if (!ScanLineForSplit(text, first, end, &depth)) return std::nullopt;
-    if (phase != Phase::kTop) {
-      if (item_start && depth_before == 0 &&
-          (phase == Phase::kFirstItem || indent == item_indent)) {
-        if (phase == Phase::kFirstItem) item_indent = indent;
-        phase = Phase::kItems;
-        split.items.push_back(SpeciesItemsSplit::Item{begin, 0, line});
-        continue;
-      }
-      if (phase == Phase::kItems && indent > item_indent) continue;  // inside the current item
-      if (phase == Phase::kFirstItem || indent > 0 || depth_before != 0) return std::nullopt;
-      items_end = begin;  // a top-level key closes the species block
-      phase = Phase::kTop;
-    }
-    if (indent > 0) {
-      if (!in_top_key) return std::nullopt;
-      continue;  // inside the value of `defaults`
-    }
-    if (depth_before != 0) return std::nullopt;
-    if (text.compare(first, 3, "---") == 0 && (first + 3 == end || text[first + 3] == ' ')) {
-      if (seen_content || !OnlyComment(text, first + 3, end)) return std::nullopt;
-      continue;
-    }
-    seen_content = true;
-    if (text.compare(first, kFormatKey.size() + 1, std::string(kFormatKey) + ":") == 0) {
-      continue;  // the format key: its value is checked when the skeleton is read
-    }
-    if (text.compare(first, 8, "species:") == 0) {
-      if (seen_species || !OnlyComment(text, first + 8, end)) return std::nullopt;
-      seen_species = in_top_key = true;
-      phase = Phase::kFirstItem;
-    } else if (text.compare(first, 9, "defaults:") == 0 &&
-               (first + 9 == end || text[first + 9] == ' ')) {
-      in_top_key = true;
-    } else {
-      return std::nullopt;
-    }
-  }
-  if (phase == Phase::kFirstItem || depth != 0 || split.items.empty()) return std::nullopt;
-  for (std::size_t i = 0; i < split.items.size(); ++i) {
-    split.items[i].end = i + 1 < split.items.size() ? split.items[i + 1].begin : items_end;
-  }
-  split.skeleton = text.substr(0, split.items.front().begin) + text.substr(items_end);
-  return split;
 }
 
 class FileParser {
@@ -2174,53 +1895,6 @@ void CheckDuplicateNames(const std::vector<NameRecord>& names, Problems* problem
   }
 }
 
-// The whole file, refusing anything above kMaxSpeciesFileBytes. Problems are recorded, not thrown.
-std::optional<std::string> ReadFileText(const std::string& path,
-                                        int file_index,
-                                        Problems* problems) {
-  errno = 0;
-  std::FILE* file = std::fopen(path.c_str(), "rb");
-  if (file == nullptr) {
-    problems->Add(file_index,
-                  0,
-                  0,
-                  path + ": cannot open species file: " + std::strerror(errno) +
-                      "; expected a readable file");
-    return std::nullopt;
-  }
-  std::string text;
-  char buffer[1 << 16];
-  while (true) {
-    const std::size_t num_read = std::fread(buffer, 1, sizeof buffer, file);
-    text.append(buffer, num_read);
-    if (text.size() > kMaxSpeciesFileBytes) {
-      std::fclose(file);
-      problems->Add(file_index,
-                    0,
-                    0,
-                    path +
-                        ": species file is larger than 16 MiB, refused before parsing; "
-                        "expected a file of at most 16 MiB");
-      return std::nullopt;
-    }
-    if (num_read < sizeof buffer) {
-      if (std::ferror(file)) {
-        const int error_number = errno;
-        std::fclose(file);
-        problems->Add(file_index,
-                      0,
-                      0,
-                      path + ": cannot read species file: " + std::strerror(error_number) +
-                          "; expected a readable file");
-        return std::nullopt;
-      }
-      break;
-    }
-  }
-  std::fclose(file);
-  return text;
-}
-
 }  // namespace
 
 std::vector<Species> ReadSpeciesText(const std::string& text,
@@ -2235,8 +1909,12 @@ std::vector<Species> ReadSpeciesFiles(const std::vector<std::string>& paths, int
   std::vector<Species> all_species;
   for (std::size_t i = 0; i < paths.size(); ++i) {
     const int file_index = static_cast<int>(i);
-    const std::optional<std::string> text = ReadFileText(paths[i], file_index, &problems);
-    if (!text) continue;
+    std::string problem;
+    const std::optional<std::string> text = detail::ReadSpeciesFileText(paths[i], &problem);
+    if (!text) {
+      problems.Add(file_index, 0, 0, problem);
+      continue;
+    }
     std::vector<Species> species;
     FileParser(*text, paths[i], file_index, &problems).Parse(&names, true, num_jobs, &species);
     for (Species& one : species) all_species.push_back(std::move(one));
