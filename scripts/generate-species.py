@@ -19,6 +19,8 @@ import sys
 # Atomic masses, amu (rounded standard atomic weights; only used to size moments of inertia).
 HEAVY = [("C", 12.011), ("N", 14.007), ("O", 15.999)]
 H_MASS = 1.008
+# Atomic numbers, for the electron count: an odd-electron species needs a degenerate ground level.
+ATOMIC_NUMBER = {"H": 1, "C": 6, "N": 7, "O": 8}
 # B (cm^-1) = B_FROM_I / I (amu angstrom^2): h / (8 pi^2 c) in these units.
 B_FROM_I = 16.857629
 
@@ -63,6 +65,23 @@ def electronic_levels(rng):
     return levels
 
 
+def spin_consistent(levels, counts):
+    """The levels with an even ground degeneracy (a doublet) if the species has an odd number of
+    electrons (Kramers: its ground level cannot be single), else unchanged."""
+    electrons = sum(ATOMIC_NUMBER[symbol] * count for symbol, count in counts.items())
+    if electrons % 2 == 0:
+        return levels
+    if levels is None:
+        return [[0, 2]]
+    if levels[0][1] % 2 == 1:
+        levels[0][1] += 1
+    return levels
+
+
+def formula(counts):
+    return "".join(symbol + (str(count) if count != 1 else "") for symbol, count in counts.items())
+
+
 def fmt_list(values):
     return "[" + ", ".join(str(v) for v in values) + "]"
 
@@ -73,11 +92,11 @@ def species_block(index, rng):
     name = "G%05d" % index
     if kind < 0.05:
         symbol, _ = rng.choice(HEAVY)
-        lines += ["  - name: %s" % name,
-                  "    composition: {%s: 1}" % symbol,
+        lines += ["  %s:" % name,
+                  "    formula: %s" % symbol,
                   "    formation-enthalpy: %.2f kJ/mol" % rng.uniform(100.0, 700.0),
                   "    shape: atom"]
-        levels = electronic_levels(rng)
+        levels = spin_consistent(electronic_levels(rng), {symbol: 1})
         if levels:
             lines.append("    electronic-levels: [%s]" % ", ".join(fmt_list(l) for l in levels))
         return lines
@@ -88,9 +107,8 @@ def species_block(index, rng):
     else:
         num_atoms, shape = rng.randint(3, 40), "nonlinear"
     counts, mass = composition_of(num_atoms, rng)
-    composition = ", ".join("%s: %d" % item for item in counts.items())
-    lines += ["  - name: %s" % name,
-              "    composition: {%s}" % composition,
+    lines += ["  %s:" % name,
+              "    formula: %s" % formula(counts),
               "    formation-enthalpy: %.2f kJ/mol" % rng.uniform(-400.0, 400.0),
               "    shape: %s" % shape]
     if shape == "linear":
@@ -115,16 +133,16 @@ def species_block(index, rng):
         lines.append("    rotational-constants: [%s]" % ", ".join("%.6g" % b for b in constants))
         modes = vibrations(3 * num_atoms - 6, rng)
     lines.append("    vibrations: %s" % fmt_list(modes))
-    levels = electronic_levels(rng)
+    levels = spin_consistent(electronic_levels(rng), counts)
     if levels:
         lines.append("    electronic-levels: [%s]" % ", ".join(fmt_list(l) for l in levels))
     if shape == "nonlinear" and num_atoms >= 4 and rng.random() < 0.33:
         # One methyl- or hydroxyl-like top replacing the softest mode.
-        lines += ["    torsions:",
+        lines += ["    hindered-rotors:",
                   "      - replaces: %s" % modes[0],
                   "        rotational-constant: %.4g" % rng.uniform(2.0, 12.0),
-                  "        symmetry: %d" % rng.choice([1, 2, 3]),
-                  "        barrier: %.2f kJ/mol" % rng.uniform(1.0, 15.0)]
+                  "        symmetry-number: %d" % rng.choice([1, 2, 3]),
+                  "        barrier-height: %.2f kJ/mol" % rng.uniform(1.0, 15.0)]
     return lines
 
 
@@ -142,8 +160,9 @@ def main(argv):
     out = ["# INVENTED species for the performance benchmark (scripts/generate-species.py %d, seed %d)."
            % (count, seed),
            "# Random but plausible constants; not data. Fits may miss the thresholds.",
+           "sevenfold-species: 2",
            "defaults:",
-           "  temperatures: {low: 200, mid: auto, high: 6000}",
+           "  fit-temperatures: {low: 200, mid: auto, high: 6000}",
            "  fit-thresholds: {cp: 0.04, enthalpy: 0.07, entropy: 0.07}",
            "species:"]
     for index in range(count):

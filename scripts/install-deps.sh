@@ -7,10 +7,12 @@ set -euo pipefail
 packages=(g++ cmake make pkg-config libeigen3-dev libceres-dev libcli11-dev libyaml-cpp-dev libfmt-dev)
 if [[ "${1:-}" == "--tests" ]]; then
   # catch2: the unit-test framework; python3-ase: the reference library the engine is checked against;
-  # chromium: renders the report's HTML page headless, to check that a real browser draws every plot.
+  # chromium: renders the report's HTML page headless, to check that a real browser draws every plot;
+  # python3-yaml: scripts/upgrade-species-file.py, run by tests/species_test.cc;
   # pybind11-dev, python3-dev, python3-numpy: the Python module (docs/python.md), built by the
   # test command; python3-pytest runs its tests.
-  packages+=(catch2 python3-ase chromium pybind11-dev python3-pybind11 python3-dev python3-numpy python3-pytest)
+  packages+=(catch2 python3-ase chromium python3-yaml pybind11-dev python3-pybind11 python3-dev
+             python3-numpy python3-pytest)
 fi
 
 missing=()

@@ -177,7 +177,7 @@ TEST_CASE("a species file above 16 MiB is refused before parsing", "[bad_input]"
   {
     // A valid species followed by comment lines: only the size is wrong.
     std::ofstream out(path, std::ios::binary);
-    out << "species:\n  - name: Ar\n    composition: {Ar: 1}\n    formation-enthalpy: 0\n"
+    out << "sevenfold-species: 2\nspecies:\n  Ar:\n    formula: Ar\n    formation-enthalpy: 0\n"
            "    shape: atom\n";
     const std::string comment = "# " + std::string(1000, 'x') + "\n";
     for (std::size_t written = 0; written <= (std::size_t{16} << 20); written += comment.size()) {
@@ -304,9 +304,9 @@ TEST_CASE("a fit killed at any moment leaves the old or the complete new file", 
   const std::string species_path = dir.File("many.yaml");
   {
     std::ofstream out(species_path);
-    out << "species:\n";
+    out << "sevenfold-species: 2\nspecies:\n";
     for (int i = 0; i < 300; ++i) {
-      out << "  - name: Ar" << i << "\n    composition: {Ar: 1}\n    formation-enthalpy: 0\n"
+      out << "  Ar" << i << ":\n    formula: Ar\n    formation-enthalpy: 0\n"
           << "    shape: atom\n";
     }
   }

@@ -67,7 +67,7 @@ TEST_CASE("table json output is produced for every species", "[cli]") {
 TEST_CASE("a bad species file exits 2 naming file, line and column", "[cli]") {
   const RunResult run = Run("table tests/data/bad-vibration.yaml");
   CHECK(run.exit_status == 2);
-  CHECK_THAT(run.err, Catch::Contains("tests/data/bad-vibration.yaml:9:"));
+  CHECK_THAT(run.err, Catch::Contains("tests/data/bad-vibration.yaml:10:"));
   CHECK_THAT(run.err, Catch::Contains("imaginary"));
   CHECK(run.out.empty());
 }
@@ -162,7 +162,7 @@ TEST_CASE("check exits 1 naming the stale species after a vibration is edited", 
                             (dir / "m.entries") + " --junit " + (dir / "report.xml"));
   CHECK(run.exit_status == 1);
   // One line for the finding (location, species, kind), then the count line.
-  CHECK_THAT(run.out, Catch::StartsWith((dir / "edited.yaml") + ":8:5: N2: stale: input changed"));
+  CHECK_THAT(run.out, Catch::StartsWith((dir / "edited.yaml") + ":9:3: N2: stale: input changed"));
   CHECK_THAT(run.out, Catch::EndsWith("\ncheck: 1 finding for 1 of 4 species in " +
                                       (dir / "m.entries") + "\n"));
   const std::string xml = ReadWhole(dir / "report.xml");
@@ -177,7 +177,7 @@ TEST_CASE("check exits 2 on a malformed species file or entries file", "[cli]") 
   const RunResult bad_species = Run("check tests/data/bad-vibration.yaml --entries " +
                                     (dir / "m.entries") + " --junit " + (dir / "report.xml"));
   CHECK(bad_species.exit_status == 2);
-  CHECK_THAT(bad_species.err, Catch::StartsWith("error: tests/data/bad-vibration.yaml:9:"));
+  CHECK_THAT(bad_species.err, Catch::StartsWith("error: tests/data/bad-vibration.yaml:10:"));
   CHECK(bad_species.out.empty());
 
   WriteWhole(dir / "bad.entries", "sevenfold-entries 2\n");
@@ -218,7 +218,7 @@ TEST_CASE("fit replaces its output by rename and a failed run leaves the old fil
   WriteWhole(dir / "impossible.yaml", impossible);
   const RunResult refused = Run("fit " + (dir / "impossible.yaml") + " -q -o " + output);
   CHECK(refused.exit_status == 2);
-  CHECK_THAT(refused.err, Catch::Contains("impossible.yaml:8:5: species 'N2'"));
+  CHECK_THAT(refused.err, Catch::Contains("impossible.yaml:9:3: species 'N2'"));
   CHECK(ReadWhole(output) == first);
   struct stat untouched {};
   REQUIRE(stat(output.c_str(), &untouched) == 0);

@@ -124,9 +124,9 @@ TEST_CASE("errors of several species are all reported with their locations", "[m
   // kMinPointsPerRange grid points on one side, which only the fitter can refuse.
   std::string text = ReferenceText();
   text = ReplaceOnce(text, "    vibrations: [2329.9]\n",
-                     "    vibrations: [2329.9]\n    temperatures: {mid: 201}\n");
+                     "    vibrations: [2329.9]\n    fit-temperatures: {mid: 201}\n");
   text = ReplaceOnce(text, "    vibrations: [3657.1, 1594.7, 3755.9]\n",
-                     "    vibrations: [3657.1, 1594.7, 3755.9]\n    temperatures: {mid: 5999}\n");
+                     "    vibrations: [3657.1, 1594.7, 3755.9]\n    fit-temperatures: {mid: 5999}\n");
   const std::vector<Species> species = ReadSpeciesText(text, "two-bad.yaml");
   REQUIRE(species.size() == 4);
   for (const int num_jobs : {1, 3}) {
@@ -135,9 +135,9 @@ TEST_CASE("errors of several species are all reported with their locations", "[m
       FAIL("FitAllSpecies accepted two impossible fits");
     } catch (const Error& e) {
       const std::string message = e.what();
-      // N2 starts at line 8, H2O (after the line added to N2) at line 23.
-      CHECK_THAT(message, Contains("two-bad.yaml:8:5: species 'N2'"));
-      CHECK_THAT(message, Contains("two-bad.yaml:23:5: species 'H2O'"));
+      // N2's label is on line 9, H2O's (after the line added to N2) on line 24.
+      CHECK_THAT(message, Contains("two-bad.yaml:9:3: species 'N2'"));
+      CHECK_THAT(message, Contains("two-bad.yaml:24:3: species 'H2O'"));
       CHECK(message.find("CO2") == std::string::npos);
       CHECK(message.find("'Ar'") == std::string::npos);
       // In input order, one line each.
@@ -169,7 +169,7 @@ TEST_CASE("check reports a species without entry and an entry without species", 
     without_co2.entries.erase(without_co2.entries.begin() + 1);
     const CheckResult result = CheckEntries(fits, without_co2, Base(2));
     REQUIRE(Summary(result) == std::vector<std::string>{"CO2 missing"});
-    CHECK(result.findings[0].location.ToString() == std::string(kReferenceName) + ":15:5");
+    CHECK(result.findings[0].location.ToString() == std::string(kReferenceName) + ":16:3");
     CHECK(result.names.size() == 4);
   }
   SECTION("extra") {
@@ -199,7 +199,7 @@ TEST_CASE("check reports an entry that was not regenerated after a vibration was
   CHECK(after[1].input_digest == before[1].input_digest);
   const CheckResult result = CheckEntries(FitAllSpecies(after, Base(2)), committed, Base(2));
   REQUIRE(Summary(result) == std::vector<std::string>{"N2 stale"});
-  CHECK(result.findings[0].location.ToString() == std::string(kReferenceName) + ":8:5");
+  CHECK(result.findings[0].location.ToString() == std::string(kReferenceName) + ":9:3");
   CHECK_THAT(result.findings[0].message, Contains("input changed"));
   CHECK_THAT(result.findings[0].message, Contains(before[0].input_digest.substr(0, 12)));
   CHECK_THAT(result.findings[0].message, Contains(after[0].input_digest.substr(0, 12)));
@@ -225,7 +225,7 @@ TEST_CASE("check compares curves within a tolerance far above rounding", "[mecha
     const CheckResult result = CheckEntries(fits, committed, Base(2));
     REQUIRE(Summary(result) == std::vector<std::string>{"CO2 curve-changed"});
     CHECK_THAT(result.findings[0].message, Contains("Cp by"));
-    CHECK_THAT(result.findings[0].location.ToString(), Contains(":15:5"));
+    CHECK_THAT(result.findings[0].location.ToString(), Contains(":16:3"));
   }
   SECTION("the enthalpy constant changed by 1e-4 relative is a curve change in H only") {
     // a6/T alone changes H/RT: |a6| ~ 5e4 K gives 5 / T, far beyond 1e-6 at any T <= 6000 K.

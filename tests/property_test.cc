@@ -287,7 +287,7 @@ TEST_CASE("fit output is byte-identical for identical input and order", "[proper
   const std::string reference =
       ReadWhole(std::string(SEVENFOLD_SOURCE_DIR) + "/tests/data/reference-species.yaml");
   const std::size_t list = reference.find("species:\n");
-  const std::size_t third = reference.find("  - name: H2O");
+  const std::size_t third = reference.find("  H2O:");
   REQUIRE(list != std::string::npos);
   REQUIRE(third != std::string::npos);
   const std::string head = reference.substr(0, list + 9);

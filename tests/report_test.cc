@@ -349,7 +349,7 @@ TEST_CASE("a species without an entry is an error naming both files", "[report]"
   ReportInput input;
   REQUIRE_THROWS_WITH(
       PairSpeciesWithEntries(Fitted().species, entries, "old.txt", nullptr, false, input),
-      Catch::Contains("reference-species.yaml:8") &&
+      Catch::Contains("reference-species.yaml:9:3") &&
           Catch::Contains("'N2' has no entry in old.txt"));
   // An entry with no species is listed, not an error.
   EntriesFile extra = Fitted().entries;

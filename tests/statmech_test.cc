@@ -15,7 +15,9 @@
 
 #include "core/constants.h"
 #include "core/error.h"
+#include "species/species_reader.h"
 #include "statmech/diatomic.h"
+#include "statmech/formation_enthalpy.h"
 #include "statmech/harmonic.h"
 #include "statmech/nuclear_spin.h"
 #include "statmech/rotor.h"
@@ -991,6 +993,7 @@ Species Ethane(bool hindered) {
   if (hindered) {
     Torsion torsion;
     torsion.replaces_cm1 = 289;
+    torsion.mode_index = 3;  // nu4 in the list below
     torsion.rotational_constant_cm1 = constants::kRotationalConstantTimesInertia / 1.6;
     torsion.symmetry = 3;
     torsion.fourier_j_per_mol = {{3, 12000.0}};
@@ -1018,13 +1021,20 @@ TEST_CASE("ethane with a hindered torsion matches its tabulated Cp and S at 298.
   CHECK(RelativeDifference(harmonic.cp_j_per_mol_k, 52.49) > 0.015);
 }
 
-TEST_CASE("a torsion naming a wavenumber no vibration has is refused", "[statmech]") {
+TEST_CASE("a torsion without a resolved mode index is refused", "[statmech]") {
   Species ethane = Ethane(true);
-  ethane.torsions[0].replaces_cm1 = 300.0;
   ethane.location = {"species/c2h6.yaml", 7, 3};
-  REQUIRE_THROWS_WITH(SpeciesThermo(ethane), Catch::Contains("species/c2h6.yaml:7:3") &&
-                                                 Catch::Contains("C2H6") &&
-                                                 Catch::Contains("300"));
+  for (const int index : {-1, 18}) {
+    ethane.torsions[0].mode_index = index;
+    REQUIRE_THROWS_WITH(SpeciesThermo(ethane), Catch::Contains("species/c2h6.yaml:7:3") &&
+                                                   Catch::Contains("C2H6") &&
+                                                   Catch::Contains("mode index " +
+                                                                   std::to_string(index)));
+  }
+  // Two torsions cannot take the same mode.
+  Species twice = Ethane(true);
+  twice.torsions.push_back(twice.torsions[0]);
+  REQUIRE_THROWS_WITH(SpeciesThermo(twice), Catch::Contains("torsion 1"));
 }
 
 TEST_CASE("models beyond the rigid rotor are finite and continuous from 10 K to 20000 K",
@@ -1210,6 +1220,81 @@ TEST_CASE("very elongated tops beyond the J cap match the explicit sum they repl
   }
   const double hot = 20000.0;
   CHECK(hybrid.At(hot).energy_variance_k2 / (hot * hot) == Approx(1.5).margin(1e-4));
+}
+
+// JANAF Thermochemical Tables, 4th ed. (Chase 1998), CO(g), from memory: dfH(0) = -113.805 and
+// dfH(298.15 K) = -110.527 kJ/mol, H(298.15) - H(0) = 8.671 kJ/mol. The 0 K value converted with
+// the model's own H298 - H0 (rigid rotor, harmonic vibration: within a few J/mol of JANAF's, whose
+// CO model is the same to that order) and CODATA's reference-state values must give JANAF's
+// 298.15 K value; the tolerance is the tables' last quoted digit for both enthalpies plus the
+// model difference.
+TEST_CASE("a formation enthalpy given at 0 K becomes JANAF's value at 298.15 K", "[statmech]") {
+  constexpr double kJanafToleranceJPerMol = 30.0;
+  Species co = CarbonMonoxide();
+  co.formation_enthalpy_0k_j_per_mol = -113805.0;
+  const SpeciesThermo thermo(co);
+  CHECK(std::fabs(thermo.H298MinusH0JPerMol() - 8671.0) < kJanafToleranceJPerMol);
+  CHECK(std::fabs(thermo.FormationEnthalpy298JPerMol() - (-110527.0)) < kJanafToleranceJPerMol);
+  // The table's absolute H at 298.15 K is the converted value.
+  CHECK(thermo.At(298.15).h_j_per_mol == thermo.FormationEnthalpy298JPerMol());
+
+  // The conversion is exactly dfH(0) + [H298-H0](species) - sum of the elements' values (C:
+  // graphite 1.050 kJ/mol, O: half of O2's 8.683 kJ/mol, CODATA Key Values 1989, from memory),
+  // plus, for a cation, the electron's 5/2 R T (thermal electron convention).
+  constexpr double kRoundingRelative = 1e-14;
+  const double expected = -113805.0 + thermo.H298MinusH0JPerMol() - 1050.0 - 8683.0 / 2.0;
+  CHECK_THAT(thermo.FormationEnthalpy298JPerMol(),
+             Catch::Matchers::WithinRel(expected, kRoundingRelative));
+  Species cation = co;
+  cation.name = "CO+";
+  cation.charge = 1;
+  const SpeciesThermo ion(cation);
+  const double electron = 2.5 * kGasConstant * 298.15;
+  CHECK_THAT(ion.FormationEnthalpy298JPerMol(),
+             Catch::Matchers::WithinRel(
+                 -113805.0 + ion.H298MinusH0JPerMol() - 1050.0 - 8683.0 / 2.0 + electron,
+                 kRoundingRelative));
+  cation.electron_convention = ElectronConvention::kStationary;
+  CHECK_THAT(SpeciesThermo(cation).FormationEnthalpy298JPerMol(),
+             Catch::Matchers::WithinRel(
+                 -113805.0 + ion.H298MinusH0JPerMol() - 1050.0 - 8683.0 / 2.0,
+                 kRoundingRelative));
+  // An element without a reference value is refused at the species' location.
+  Species sodium_atom = Molecule("Na", {{"Na", 1}}, Shape::kAtom, 1, {}, {});
+  sodium_atom.electronic_levels = {{0.0, 2.0}};
+  sodium_atom.formation_enthalpy_0k_j_per_mol = 107500.0;
+  sodium_atom.location = SourceLocation{"f.yaml", 3, 3};
+  REQUIRE_THROWS_WITH(SpeciesThermo(sodium_atom),
+                      Catch::Contains("f.yaml:3:3: species 'Na': formation-enthalpy-0k: no "
+                                      "H(298.15) - H(0) of the reference state of Na"));
+}
+
+// CH3, a doublet radical (constants from memory, for the comparison only): spin-multiplicity 2 is
+// a single ground level of degeneracy 2, so the two readings give the same tables bit for bit.
+TEST_CASE("spin-multiplicity gives the same tables as an explicit ground level", "[statmech]") {
+  const std::string head =
+      "sevenfold-species: 2\nspecies:\n  CH3:\n    formula: CH3\n"
+      "    formation-enthalpy: 146.7\n    shape: nonlinear\n    symmetry-number: 6\n"
+      "    rotational-constants: [9.578, 9.578, 4.742]\n"
+      "    vibrations: [3004.4, 606.5, 3160.8, 3160.8, 1396, 1396]\n";
+  const Species by_multiplicity =
+      ReadSpeciesText(head + "    spin-multiplicity: 2\n", "f.yaml").at(0);
+  const Species by_level =
+      ReadSpeciesText(head + "    electronic-levels: [[0, 2]]\n", "f.yaml").at(0);
+  const SpeciesThermo a(by_multiplicity);
+  const SpeciesThermo b(by_level);
+  for (const double t_k : {20.0, 298.15, 1000.0, 6000.0}) {
+    const ThermoPoint pa = a.At(t_k), pb = b.At(t_k);
+    CHECK(pa.cp_j_per_mol_k == pb.cp_j_per_mol_k);
+    CHECK(pa.s_j_per_mol_k == pb.s_j_per_mol_k);
+    CHECK(pa.h_j_per_mol == pb.h_j_per_mol);
+  }
+  // The doublet adds R ln 2 to the entropy of the same molecule with a single ground level
+  // (a number that cannot come from a file, which refuses CH3 so: Kramers).
+  Species singlet = by_level;
+  singlet.electronic_levels = {{0.0, 1.0}};
+  CHECK_THAT(a.At(298.15).s_j_per_mol_k - SpeciesThermo(singlet).At(298.15).s_j_per_mol_k,
+             Catch::Matchers::WithinRel(kGasConstant * std::log(2.0), 1e-12));
 }
 
 }  // namespace

@@ -104,4 +104,21 @@ const std::vector<std::string>& KnownElementSymbols() {
   return symbols;
 }
 
+std::optional<int> AtomicNumber(const std::string& symbol) {
+  // Z = 1 .. 92 in periodic table order (common practice).
+  static const char* const kSymbolsByZ[] = {
+      "H",  "He", "Li", "Be", "B",  "C",  "N",  "O",  "F",  "Ne", "Na", "Mg", "Al", "Si",
+      "P",  "S",  "Cl", "Ar", "K",  "Ca", "Sc", "Ti", "V",  "Cr", "Mn", "Fe", "Co", "Ni",
+      "Cu", "Zn", "Ga", "Ge", "As", "Se", "Br", "Kr", "Rb", "Sr", "Y",  "Zr", "Nb", "Mo",
+      "Tc", "Ru", "Rh", "Pd", "Ag", "Cd", "In", "Sn", "Sb", "Te", "I",  "Xe", "Cs", "Ba",
+      "La", "Ce", "Pr", "Nd", "Pm", "Sm", "Eu", "Gd", "Tb", "Dy", "Ho", "Er", "Tm", "Yb",
+      "Lu", "Hf", "Ta", "W",  "Re", "Os", "Ir", "Pt", "Au", "Hg", "Tl", "Pb", "Bi", "Po",
+      "At", "Rn", "Fr", "Ra", "Ac", "Th", "Pa", "U"};
+  if (symbol == "D" || symbol == "T") return 1;
+  for (std::size_t z = 0; z < sizeof kSymbolsByZ / sizeof kSymbolsByZ[0]; ++z) {
+    if (symbol == kSymbolsByZ[z]) return static_cast<int>(z) + 1;
+  }
+  return std::nullopt;
+}
+
 }  // namespace sevenfold

@@ -14,6 +14,10 @@ namespace sevenfold {
 // interval), for H..Xe without Tc, plus Cs, Ba, W, Pt, Au, Hg, Pb, Bi, U.
 std::optional<double> AtomicWeightGPerMol(const std::string& symbol);
 
+// Atomic number Z (protons, and electrons of the neutral atom) of an element symbol from H (1) to
+// U (92), D and T (1); nullopt if unknown. Periodic table order (common practice).
+std::optional<int> AtomicNumber(const std::string& symbol);
+
 // Every symbol AtomicWeightGPerMol knows, in table order (for messages and tests).
 const std::vector<std::string>& KnownElementSymbols();
 

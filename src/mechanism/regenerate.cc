@@ -68,9 +68,12 @@ FitOptions FitOptionsFor(const Species& species, const RegenerateOptions& option
   return fit_options;
 }
 
-ExactCurves ExactCurvesFor(const Species& species) {
+ExactCurves ExactCurvesFor(const Species& species, double* formation_enthalpy_j_per_mol) {
   // Exact up to the top of the fit grid, and no further: hindered-rotor ladders then stop there.
   const SpeciesThermo thermo(species, species.temperatures.high_k);
+  if (formation_enthalpy_j_per_mol != nullptr) {
+    *formation_enthalpy_j_per_mol = thermo.FormationEnthalpy298JPerMol();
+  }
   ExactCurves curves;
   curves.t_k = FitGrid(species.temperatures.low_k, species.temperatures.high_k);
   for (const double t : curves.t_k) {
@@ -116,7 +119,7 @@ std::vector<SpeciesFit> FitAllSpecies(const std::vector<Species>& species,
         SpeciesFit& result = results[i];
         result.species = &species[i];
         try {
-          result.exact = ExactCurvesFor(species[i]);
+          result.exact = ExactCurvesFor(species[i], &result.formation_enthalpy_j_per_mol);
           result.fit = FitTwoRange(result.exact, FitOptionsFor(species[i], options),
                                    species[i].thresholds);
         } catch (const Error& e) {
@@ -156,7 +159,7 @@ Entry MakeEntry(const SpeciesFit& result, const RegenerateOptions& options) {
   entry.composition = species.composition;
   entry.charge = species.charge;
   entry.polynomial = result.fit.polynomial;
-  entry.formation_enthalpy_j_per_mol = species.formation_enthalpy_j_per_mol;
+  entry.formation_enthalpy_j_per_mol = result.formation_enthalpy_j_per_mol;
   entry.reference_pressure_pa = species.standard_pressure_pa;
   entry.quality = result.fit.quality;
   entry.provenance.input_sha256 = species.input_digest;

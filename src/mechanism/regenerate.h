@@ -41,6 +41,7 @@ struct SpeciesFit {
   const Species* species = nullptr;  // points into the caller's vector
   ExactCurves exact;
   FitResult fit;
+  double formation_enthalpy_j_per_mol = 0.0;  // dfH(298.15 K) of the exact model
 };
 
 // Fits every species. Throws Error listing every species that could not be computed (bad data
@@ -63,7 +64,9 @@ FitOptions FitOptionsFor(const Species& species, const RegenerateOptions& option
 
 // Exact dimensionless curves of a species on the fit grid of its temperature range (the model
 // built exact up to the range's top only: see SpeciesThermo).
-ExactCurves ExactCurvesFor(const Species& species);
+// When formation_enthalpy_j_per_mol is not null it receives the model's dfH(298.15 K) (converted
+// from the species' 0 K value when that is what the file gives).
+ExactCurves ExactCurvesFor(const Species& species, double* formation_enthalpy_j_per_mol = nullptr);
 
 // A one-line description of the physical model and fit options used for a species; written
 // into each entry's provenance so that a change of model shows as a change of entry.

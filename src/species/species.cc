@@ -59,6 +59,27 @@ double Species::MolarMassKgPerMol() const {
   return mass_g_per_mol * 1.0e-3;
 }
 
+std::string ToString(ElectronConvention convention) {
+  switch (convention) {
+    case ElectronConvention::kThermal:
+      return "thermal";
+    case ElectronConvention::kStationary:
+      return "stationary";
+  }
+  SEVENFOLD_ASSERT(false);
+  return "";
+}
+
+int Species::NumElectrons() const {
+  int electrons = -charge;
+  for (const auto& [symbol, count] : composition) {
+    const std::optional<int> z = AtomicNumber(symbol);
+    SEVENFOLD_ASSERT(z.has_value());
+    electrons += *z * count;
+  }
+  return electrons;
+}
+
 int Species::NumAtoms() const {
   int num_atoms = 0;
   for (const auto& entry : composition) num_atoms += entry.second;

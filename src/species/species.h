@@ -74,7 +74,11 @@ struct NuclearSpin {
 
 // A 1-D hindered internal rotor replacing one harmonic mode.
 struct Torsion {
-  double replaces_cm1 = 0.0;            // wavenumber of the vibration it replaces
+  double replaces_cm1 = 0.0;            // wavenumber of the vibration it replaces, as written
+  // Index into Species::vibrations_cm1 of the mode it replaces, resolved once by the reader
+  // (within its stated tolerance, docs/species-schema.md); -1 when unresolved. The engine uses
+  // this index and never matches wavenumbers itself.
+  int mode_index = -1;
   double rotational_constant_cm1 = 0.0; // B = h / (8 pi^2 c I_red); from reduced-moment if given
   int symmetry = 1;                     // torsional symmetry number n
   // V(phi) = sum_k V_k / 2 (1 - cos k phi), J/mol. A plain barrier V0 is the single term k = n.
@@ -86,12 +90,29 @@ struct GeometryAtom {
   double x_angstrom = 0.0, y_angstrom = 0.0, z_angstrom = 0.0;
 };
 
+// How the formation enthalpy of an ion treats the electron (docs/species-schema.md). Thermal
+// (the electron an ideal gas with H(298.15) - H(0) = 5/2 R T, as JANAF tables do) or stationary
+// (the "ion convention": the electron's enthalpy is 0 at every temperature).
+enum class ElectronConvention { kThermal, kStationary };
+// "thermal", "stationary".
+std::string ToString(ElectronConvention convention);
+
+// The convention of every formation enthalpy a species file gives for an ion, at 298.15 K or at
+// 0 K, and of the conversion between the two (statmech/formation_enthalpy.h).
+inline constexpr ElectronConvention kFormationEnthalpyElectronConvention =
+    ElectronConvention::kThermal;
+
 struct Species {
   std::string name;
   // Element symbol and count, in the order written in the file.
   std::vector<std::pair<std::string, int>> composition;
   int charge = 0;
-  double formation_enthalpy_j_per_mol = 0.0;  // at 298.15 K
+  // dfH at 298.15 K. When the file gives the value at 0 K instead, this is 0 and
+  // formation_enthalpy_0k_j_per_mol holds it: the exact thermo (statmech) converts it with the
+  // species' own H(298.15) - H(0), SpeciesThermo::FormationEnthalpy298JPerMol.
+  double formation_enthalpy_j_per_mol = 0.0;
+  std::optional<double> formation_enthalpy_0k_j_per_mol;
+  ElectronConvention electron_convention = kFormationEnthalpyElectronConvention;
   Shape shape = Shape::kAtom;
   double symmetry_number = 1.0;
   // Linear: {B}. Nonlinear: {A, B, C} sorted A >= B >= C. cm^-1. From moments-of-inertia or
@@ -122,6 +143,8 @@ struct Species {
   double MolarMassKgPerMol() const;
   // Total number of atoms.
   int NumAtoms() const;
+  // Electrons: the atomic numbers of the composition minus the charge.
+  int NumElectrons() const;
 };
 
 }  // namespace sevenfold

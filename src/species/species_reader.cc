@@ -16,6 +16,7 @@
 #include <map>
 #include <optional>
 #include <tuple>
+#include <string_view>
 #include <utility>
 
 #include "core/constants.h"
@@ -23,93 +24,40 @@
 #include "core/elements.h"
 #include "core/parallel.h"
 #include "core/units.h"
+#include "species/formula.h"
+#include "species/canonical.h"
+#include "species/file_text.h"
 #include "species/geometry.h"
+#include "species/item_split.h"
+#include "species/species_schema.h"
+#include "species/text_checks.h"
 
 namespace sevenfold {
 namespace {
 
 // More problems than this are summarised in one closing line: beyond it the list stops helping.
 constexpr std::size_t kMaxReportedProblems = 100;
-// Temperatures of the fit ranges must lie in this band, kelvin. Below 10 K hardly any gas exists
-// as an ideal gas and the polynomial form is useless; above 20000 K ionisation dominates and the
-// single-species model no longer holds (common practice).
-constexpr double kMinTemperatureK = 10.0;
-constexpr double kMaxTemperatureK = 20000.0;
-// Rotational constants given next to a geometry must agree with it within 1 %: equilibrium
-// geometries and ground-state constants differ by vibration-rotation terms of this order or less.
-constexpr double kGeometryConstantsRelativeTolerance = 0.01;
-// A torsion's `replaces` must equal a listed vibration; input written to 0.1 cm^-1 rounds by at
-// most 0.05 cm^-1.
-constexpr double kTorsionMatchToleranceCm1 = 0.05;
-// Standard pressures accepted: the two conventions, within rounding of the written value.
-constexpr double kPressureRelativeTolerance = 1.0e-9;
+using namespace schema;  // the bands and tolerances (species/species_schema.h)
+using detail::AppendCanonical;
+using detail::BadByte;
+using detail::DefaultsCanonical;
+using detail::FindBadByte;
+using detail::SecondDocumentLine;
+using detail::SpeciesItemsSplit;
+using detail::SplitSpeciesItems;
 
-// Plausibility bands. Values outside them are typing mistakes or hostile input, and some of them
-// drive the statistical-mechanics engine into overflow (NaN or inf results) or into sums that
-// never end (docs/robustness.md lists the cases). Each band is wide around what real molecules
-// show; none of them bites on a real species.
-// Rotational constants (also torsional ones), cm^-1: H2 has the largest of any molecule,
-// B_e = 60.85 cm^-1 (Huber & Herzberg 1979, from memory); C60 is near 0.0028 cm^-1 (from memory).
-constexpr double kMinRotationalConstantCm1 = 1.0e-6;
-constexpr double kMaxRotationalConstantCm1 = 1.0e3;
-// Harmonic wavenumbers, cm^-1: the highest is H2's 4401 cm^-1 (Huber & Herzberg 1979, from
-// memory); a mode below 1 cm^-1 is numerical noise of a frequency calculation (common practice).
-constexpr double kMinWavenumberCm1 = 1.0;
-constexpr double kMaxWavenumberCm1 = 1.0e4;
-// Frequency scale factors in use lie between about 0.85 and 1.1 (common practice).
-constexpr double kMinFrequencyScale = 0.5;
-constexpr double kMaxFrequencyScale = 2.0;
-// Dunham-type constants, cm^-1 (magnitude): the strongest bond, CO, has D_0 near 89,500 cm^-1
-// (11.1 eV, from memory); every other constant is far smaller.
-constexpr double kMaxSpectroscopicConstantCm1 = 1.0e5;
-// De / Be above which a diatomic's constants are refused (see ReadDiatomicState).
-constexpr double kMaxCentrifugalToRotational = 1.0e-2;
-// Degeneracies (electronic levels, nuclear-spin weights): lumped atomic manifolds reach a few
-// hundred (common practice).
-constexpr double kMaxDegeneracy = 1.0e6;
-// Atoms of one element in a species: gas-phase species in mechanisms have tens (common practice);
-// the bound keeps 3N-6 and the atom total far from integer overflow.
-constexpr int kMaxAtomCount = 1000;
-// |formation enthalpy|, J/mol: gas-phase ions of light elements reach about 1e4 kJ/mol
-// (He2+: 7.6e3 kJ/mol from its ionisation energies, from memory).
-constexpr double kMaxFormationEnthalpyJPerMol = 1.0e8;
-// Torsional barriers and Fourier terms, J/mol: real barriers are below about 100 kJ/mol
-// (common practice); far above, the mode is a vibration, not a torsion.
-constexpr double kMaxTorsionBarrierJPerMol = 1.0e6;
-// |coordinate| in a geometry, angstrom: molecules are nanometres across.
-constexpr double kMaxCoordinateAngstrom = 1.0e3;
 
-const std::vector<std::string> kTopKeys = {"defaults", "species"};
-const std::vector<std::string> kDefaultsKeys = {"temperatures", "pressure", "fit-thresholds"};
-const std::vector<std::string> kSpeciesKeys = {"name",
-                                               "composition",
-                                               "charge",
-                                               "formation-enthalpy",
-                                               "shape",
-                                               "symmetry-number",
-                                               "rotational-constants",
-                                               "moments-of-inertia",
-                                               "geometry",
-                                               "vibrations",
-                                               "frequency-scale",
-                                               "electronic-levels",
-                                               "optical-isomers",
-                                               "centrifugal-distortion",
-                                               "temperatures",
-                                               "pressure",
-                                               "fit-thresholds",
-                                               "diatomic-constants",
-                                               "nuclear-spin",
-                                               "torsions"};
-const std::vector<std::string> kTemperatureKeys = {"low", "mid", "high"};
-const std::vector<std::string> kThresholdKeys = {"cp", "enthalpy", "entropy"};
-const std::vector<std::string> kDiatomicKeys = {
-    "we", "wexe", "weye", "Be", "alphae", "gammae", "De", "dissociation"};
-const std::vector<std::string> kDiatomicStateKeys = {
-    "energy", "degeneracy", "we", "wexe", "weye", "Be", "alphae", "gammae", "De", "dissociation"};
-const std::vector<std::string> kNuclearSpinKeys = {"even", "odd", "mixture"};
-const std::vector<std::string> kTorsionKeys = {
-    "replaces", "reduced-moment", "rotational-constant", "symmetry", "barrier", "fourier"};
+// Allowed keys per map, in the order messages list them: from the key table.
+const std::vector<std::string>& kTopKeys = KeysOf(KeySection::kTop);
+const std::vector<std::string>& kDefaultsKeys = KeysOf(KeySection::kDefaults);
+const std::vector<std::string>& kSpeciesKeys = KeysOf(KeySection::kSpecies);
+const std::vector<std::string>& kTemperatureKeys = KeysOf(KeySection::kFitTemperatures);
+const std::vector<std::string>& kThresholdKeys = KeysOf(KeySection::kFitThresholds);
+const std::vector<std::string>& kErrorScaleKeys = KeysOf(KeySection::kFitErrorScales);
+const std::vector<std::string>& kDiatomicKeys = KeysOf(KeySection::kRovibrationalMap);
+const std::vector<std::string>& kDiatomicStateKeys = KeysOf(KeySection::kRovibrationalState);
+const std::vector<std::string>& kNuclearSpinKeys = KeysOf(KeySection::kSpinStatistics);
+const std::vector<std::string>& kTorsionKeys = KeysOf(KeySection::kHinderedRotor);
 
 std::string JoinWords(const std::vector<std::string>& words) {
   std::string text;
@@ -132,12 +80,7 @@ std::string NumberList(const std::vector<double>& values, const char* format = "
 }
 
 std::string CompositionText(const std::map<std::string, int>& counts) {
-  std::string text = "{";
-  for (const auto& [symbol, count] : counts) {
-    if (text.size() > 1) text += ", ";
-    text += symbol + ": " + std::to_string(count);
-  }
-  return text + "}";
+  return FormatFormula(std::vector<std::pair<std::string, int>>(counts.begin(), counts.end()), 0);
 }
 
 // What a node holds, for "what was found" in messages.
@@ -225,6 +168,7 @@ struct Defaults {
   TemperatureRanges temperatures;
   double pressure_pa = constants::kStandardPressureBar;
   QualityThresholds thresholds;
+  FitRequest fit_request;
 };
 
 // "an atom", "a linear species", "a nonlinear species".
@@ -248,292 +192,6 @@ std::string ShapeCountRule(Shape shape, int num_atoms) {
              std::to_string(num_atoms) + " atoms)";
   }
   return "";
-}
-
-// The first byte of `text` that is not valid UTF-8 or is a control character YAML forbids
-// (C0 controls other than tab, line feed and carriage return, and DEL), with its 1-based line and
-// column (columns count characters). nullopt when the whole text is clean. YAML streams are
-// Unicode (YAML 1.2, section 5.1); yaml-cpp does not check this itself, and a name with broken
-// bytes would otherwise reach the entries file, which must be UTF-8.
-struct BadByte {
-  unsigned char byte = 0;
-  int line = 1;
-  int column = 1;
-  bool control = false;
-};
-std::optional<BadByte> FindBadByte(const std::string& text) {
-  BadByte at;
-  std::size_t i = 0;
-  while (i < text.size()) {
-    const unsigned char lead = static_cast<unsigned char>(text[i]);
-    at.byte = lead;
-    if (lead < 0x80) {
-      if ((lead < 0x20 && lead != '\t' && lead != '\n' && lead != '\r') || lead == 0x7f) {
-        at.control = true;
-        return at;
-      }
-      ++i;
-      if (lead == '\n') {
-        ++at.line;
-        at.column = 1;
-      } else {
-        ++at.column;
-      }
-      continue;
-    }
-    // Well-formed sequences per the Unicode Standard, table 3-7: no overlong forms, no
-    // surrogates, nothing above U+10FFFF.
-    int length = 0;
-    unsigned char second_min = 0x80, second_max = 0xbf;
-    if (lead >= 0xc2 && lead <= 0xdf) {
-      length = 2;
-    } else if (lead >= 0xe0 && lead <= 0xef) {
-      length = 3;
-      if (lead == 0xe0) second_min = 0xa0;
-      if (lead == 0xed) second_max = 0x9f;
-    } else if (lead >= 0xf0 && lead <= 0xf4) {
-      length = 4;
-      if (lead == 0xf0) second_min = 0x90;
-      if (lead == 0xf4) second_max = 0x8f;
-    } else {
-      return at;
-    }
-    if (i + length > text.size()) return at;
-    for (int k = 1; k < length; ++k) {
-      const unsigned char next = static_cast<unsigned char>(text[i + k]);
-      const unsigned char low = k == 1 ? second_min : 0x80, high = k == 1 ? second_max : 0xbf;
-      if (next < low || next > high) return at;
-    }
-    i += static_cast<std::size_t>(length);
-    ++at.column;
-  }
-  return std::nullopt;
-}
-
-// The 1-based line where a second YAML document starts, 0 when there is none: a line "---"
-// (alone or followed by a space) after a line with content, or a line with content after a
-// "..." end marker. Comments, blank lines and %-directives are not content.
-int SecondDocumentLine(const std::string& text) {
-  const auto is_marker = [](const std::string& line, const char* marker) {
-    return line.compare(0, 3, marker) == 0 &&
-           (line.size() == 3 || line[3] == ' ' || line[3] == '\t' || line[3] == '\r');
-  };
-  bool seen_content = false, ended = false;
-  int number = 0;
-  std::size_t start = 0;
-  while (start < text.size()) {
-    std::size_t end = text.find('\n', start);
-    if (end == std::string::npos) end = text.size();
-    const std::string line = text.substr(start, end - start);
-    start = end + 1;
-    ++number;
-    const std::size_t first = line.find_first_not_of(" \t\r");
-    if (first == std::string::npos || line[first] == '#' || line[0] == '%') continue;
-    if (is_marker(line, "---")) {
-      if (seen_content || ended) return number;
-      // "--- value": the document's content starts on this line.
-      const std::size_t rest = line.find_first_not_of(" \t\r", 3);
-      if (rest != std::string::npos && line[rest] != '#') seen_content = true;
-      continue;
-    }
-    if (is_marker(line, "...")) {
-      ended = true;
-      continue;
-    }
-    if (ended) return number;
-    seen_content = true;
-  }
-  return 0;
-}
-
-// Appends `text` as its byte count, a colon and the bytes, so no two sequences of texts collide.
-void AppendLengthPrefixed(const std::string& text, std::string* out) {
-  *out += std::to_string(text.size());
-  *out += ':';
-  *out += text;
-}
-
-// Appends a canonical form of `node` for the input digest: a type letter, then a scalar's
-// length-prefixed text, or a collection's item count followed by its items (maps: key, value, in
-// file order). Explicit tags enter it; comments, indentation, quoting and flow or block style do
-// not, so only content changes the digest. Aliases are written out in full; the node must have
-// passed validation, whose schema bounds its depth (no cycles reach here).
-void AppendCanonical(const YAML::Node& node, std::string* out) {
-  const std::string& tag = node.Tag();
-  if (!tag.empty() && tag != "?" && tag != "!") {
-    *out += '!';
-    AppendLengthPrefixed(tag, out);
-  }
-  switch (node.Type()) {
-    case YAML::NodeType::Undefined:
-      *out += 'u';
-      return;
-    case YAML::NodeType::Null:
-      *out += '~';
-      return;
-    case YAML::NodeType::Scalar:
-      *out += 's';
-      AppendLengthPrefixed(node.Scalar(), out);
-      return;
-    case YAML::NodeType::Sequence:
-      *out += 'l' + std::to_string(node.size()) + ':';
-      for (const YAML::Node& item : node) AppendCanonical(item, out);
-      return;
-    case YAML::NodeType::Map:
-      *out += 'm' + std::to_string(node.size()) + ':';
-      for (auto it = node.begin(); it != node.end(); ++it) {
-        AppendCanonical(it->first, out);
-        AppendCanonical(it->second, out);
-      }
-      return;
-  }
-}
-
-// The part of every species' digest that comes from the file's `defaults` node.
-std::string DefaultsCanonical(const YAML::Node& defaults) {
-  std::string canonical = "\ndefaults\n";
-  AppendCanonical(defaults, &canonical);
-  return canonical;
-}
-
-// The items of a species file's top-level `species:` block sequence, found by a cheap scan of the
-// text, and the rest of the file (the skeleton: top-level keys, `defaults`, comments). Parsing each
-// item on its own holds one small node tree at a time instead of the whole document's, and lets
-// items be parsed in parallel.
-struct SpeciesItemsSplit {
-  struct Item {
-    std::size_t begin = 0;  // byte range: the item's "- " line up to the next item's
-    std::size_t end = 0;
-    int first_line = 0;  // 0-based line of `begin` in the file
-  };
-  std::vector<Item> items;
-  std::string skeleton;
-};
-
-// True when text[pos, end) is only spaces, optionally followed by a comment after a space.
-bool OnlyComment(const std::string& text, std::size_t pos, std::size_t end) {
-  const std::size_t start = pos;
-  while (pos < end && text[pos] == ' ') ++pos;
-  return pos == end || (text[pos] == '#' && pos > start);
-}
-
-// Scans the content text[begin, end) of one line, carrying the flow-collection depth across lines.
-// False where the split cannot be sure of YAML's reading: a tab or carriage return, a quoted
-// scalar not closed on its line, a bracket that may be part of a plain scalar, or an indicator
-// with a meaning at the start of a token (anchor, alias, tag, block scalar, complex key, directive,
-// reserved). Brackets and indicators inside quotes or comments do not count.
-bool ScanLineForSplit(const std::string& text, std::size_t begin, std::size_t end, int* depth) {
-  char previous = ' ';
-  for (std::size_t i = begin; i < end; ++i) {
-    const char c = text[i];
-    // YAML starts a token (a node, a quoted scalar, a flow collection) only after these.
-    const bool token_start =
-        previous == ' ' || previous == '[' || previous == '{' || previous == ',' || previous == ':';
-    if (c == '\t' || c == '\r') return false;
-    if (c == '#' && previous == ' ') return true;  // a comment runs to the end of the line
-    if (token_start && (c == '"' || c == '\'')) {
-      std::size_t j = i + 1;
-      for (; j < end; ++j) {
-        if (text[j] == '\t' || text[j] == '\r') return false;
-        if (c == '"' && text[j] == '\\') {
-          ++j;  // an escaped character, possibly a quote
-        } else if (text[j] == c) {
-          if (c == '\'' && j + 1 < end && text[j + 1] == '\'') {
-            ++j;  // '' is a quote inside a single-quoted scalar
-          } else {
-            break;
-          }
-        }
-      }
-      if (j >= end) return false;
-      i = j;
-      previous = c;
-      continue;
-    }
-    if (c == '[' || c == '{') {
-      if (*depth == 0 && !token_start) return false;
-      ++*depth;
-    } else if (c == ']' || c == '}') {
-      if (*depth == 0) return false;
-      --*depth;
-    } else if (token_start && (c == '&' || c == '*' || c == '!' || c == '|' || c == '>' ||
-                               c == '?' || c == '@' || c == '`' || c == '%')) {
-      return false;
-    }
-    previous = c;
-  }
-  return true;
-}
-
-// The split of `text`, or nullopt unless the scan is sure of it. Sure means: a block-style
-// top-level map whose column-0 lines are only `defaults:`, `species:` (nothing after the colon),
-// a leading "---" and comments; the species value is a block sequence whose items start with "- "
-// at one indentation, every other line of the block indented deeper (or a comment); no flow
-// collection or quoted scalar spans an item boundary or a top-level key (ScanLineForSplit). A
-// wrong guess can only cut a multi-line construct, which makes the cut item fail to parse; the
-// caller then reads the whole document, so errors are reported exactly as before.
-std::optional<SpeciesItemsSplit> SplitSpeciesItems(const std::string& text) {
-  enum class Phase { kTop, kFirstItem, kItems };
-  Phase phase = Phase::kTop;
-  SpeciesItemsSplit split;
-  bool seen_content = false, seen_species = false, in_top_key = false;
-  int depth = 0;
-  std::size_t item_indent = 0, items_end = text.size();
-  int line = -1;
-  for (std::size_t next = 0; next < text.size();) {
-    ++line;
-    const std::size_t begin = next;
-    std::size_t end = text.find('\n', begin);
-    next = end == std::string::npos ? text.size() : end + 1;
-    if (end == std::string::npos) end = text.size();
-    if (end > begin && text[end - 1] == '\r') --end;
-    std::size_t first = begin;
-    while (first < end && text[first] == ' ') ++first;
-    if (first == end || text[first] == '#') continue;  // blank or comment: no effect on the split
-    const std::size_t indent = first - begin;
-    const bool item_start = text[first] == '-' && (first + 1 == end || text[first + 1] == ' ');
-    const int depth_before = depth;
-    if (!ScanLineForSplit(text, first, end, &depth)) return std::nullopt;
-    if (phase != Phase::kTop) {
-      if (item_start && depth_before == 0 &&
-          (phase == Phase::kFirstItem || indent == item_indent)) {
-        if (phase == Phase::kFirstItem) item_indent = indent;
-        phase = Phase::kItems;
-        split.items.push_back(SpeciesItemsSplit::Item{begin, 0, line});
-        continue;
-      }
-      if (phase == Phase::kItems && indent > item_indent) continue;  // inside the current item
-      if (phase == Phase::kFirstItem || indent > 0 || depth_before != 0) return std::nullopt;
-      items_end = begin;  // a top-level key closes the species block
-      phase = Phase::kTop;
-    }
-    if (indent > 0) {
-      if (!in_top_key) return std::nullopt;
-      continue;  // inside the value of `defaults`
-    }
-    if (depth_before != 0) return std::nullopt;
-    if (text.compare(first, 3, "---") == 0 && (first + 3 == end || text[first + 3] == ' ')) {
-      if (seen_content || !OnlyComment(text, first + 3, end)) return std::nullopt;
-      continue;
-    }
-    seen_content = true;
-    if (text.compare(first, 8, "species:") == 0) {
-      if (seen_species || !OnlyComment(text, first + 8, end)) return std::nullopt;
-      seen_species = in_top_key = true;
-      phase = Phase::kFirstItem;
-    } else if (text.compare(first, 9, "defaults:") == 0 &&
-               (first + 9 == end || text[first + 9] == ' ')) {
-      in_top_key = true;
-    } else {
-      return std::nullopt;
-    }
-  }
-  if (phase == Phase::kFirstItem || depth != 0 || split.items.empty()) return std::nullopt;
-  for (std::size_t i = 0; i < split.items.size(); ++i) {
-    split.items[i].end = i + 1 < split.items.size() ? split.items[i + 1].begin : items_end;
-  }
-  split.skeleton = text.substr(0, split.items.front().begin) + text.substr(items_end);
-  return split;
 }
 
 class FileParser {
@@ -601,9 +259,6 @@ class FileParser {
                                         const std::string& key,
                                         const std::string& expected);
   std::optional<double> ReadEnergy(const YAML::Node& value, const std::string& key);
-  std::optional<std::vector<double>> ReadPositiveList(const YAML::Node& value,
-                                                      const std::string& key,
-                                                      const std::string& what);
   bool IsSequence(const YAML::Node& value, const std::string& key, const std::string& expected) {
     if (value.IsSequence()) return true;
     Fail(value, key, Describe(value), expected);
@@ -611,13 +266,28 @@ class FileParser {
   }
 
   std::optional<Defaults> ReadDefaults(const YAML::Node& node);
+  // fit-objective, fit-extrapolation-guard and fit-error-scales of a defaults or species map,
+  // over what *request already holds (error scales merged key by key).
+  void ReadFitRequest(const Entries& entries, FitRequest* request);
+  // A list of rotational constants (to cm^-1) or moments of inertia (to amu angstrom^2), each a
+  // number with an optional unit.
+  std::optional<std::vector<double>> ReadRotationalList(const YAML::Node& value,
+                                                        const std::string& key,
+                                                        bool moments);
+  void ReadSpinMultiplicity(const Entry& entry, const Entries& entries, Species* species);
+  // Kramers: an odd-electron species cannot have a single ground level.
+  void CheckKramers(const YAML::Node& label_node, const Entries& entries, const Species& species);
+  // True when `root` is a map whose first key is the format key with the supported version;
+  // else records why (also: a file of the first layout, with the way to convert it).
+  bool CheckFormat(const YAML::Node& root);
   bool ReadTemperatures(const YAML::Node& value, const std::string& key, TemperatureRanges* ranges);
   bool ReadThresholds(const YAML::Node& value,
                       const std::string& key,
                       QualityThresholds* thresholds);
   std::optional<double> ReadStandardPressure(const YAML::Node& value, const std::string& key);
 
-  std::optional<Species> ReadSpecies(const YAML::Node& node,
+  std::optional<Species> ReadSpecies(const YAML::Node& label_node,
+                                     const YAML::Node& node,
                                      int index,
                                      const Defaults& defaults,
                                      std::vector<NameRecord>* names);
@@ -626,15 +296,15 @@ class FileParser {
                                                  int num_jobs,
                                                  std::vector<NameRecord>* names);
   std::vector<Species> ParseWholeDocument(std::vector<NameRecord>* names);
-  bool ReadComposition(const YAML::Node& value, Species* species);
-  void ReadRotation(const YAML::Node& node,
+  bool ReadFormula(const YAML::Node& value, Species* species);
+  void ReadRotation(const YAML::Node& block,
                     const Entries& entries,
                     bool composition_ok,
                     bool shape_ok,
                     bool has_diatomic,
                     Species* species);
   std::optional<std::vector<GeometryAtom>> ReadGeometry(const YAML::Node& value);
-  void ReadVibrations(const YAML::Node& node,
+  void ReadVibrations(const YAML::Node& block,
                       const Entries& entries,
                       bool composition_ok,
                       bool shape_ok,
@@ -785,24 +455,6 @@ std::optional<double> FileParser::ReadEnergy(const YAML::Node& value, const std:
   return energy;
 }
 
-std::optional<std::vector<double>> FileParser::ReadPositiveList(const YAML::Node& value,
-                                                                const std::string& key,
-                                                                const std::string& what) {
-  if (!IsSequence(value, key, "a list of positive " + what)) return std::nullopt;
-  std::vector<double> numbers;
-  bool ok = true;
-  for (std::size_t i = 0; i < value.size(); ++i) {
-    const std::optional<double> number =
-        ReadPositive(value[i], key + "[" + std::to_string(i) + "]", what);
-    if (number) {
-      numbers.push_back(*number);
-    } else {
-      ok = false;
-    }
-  }
-  if (!ok) return std::nullopt;
-  return numbers;
-}
 
 std::optional<double> FileParser::ReadStandardPressure(const YAML::Node& value,
                                                        const std::string& key) {
@@ -904,83 +556,62 @@ std::optional<Defaults> FileParser::ReadDefaults(const YAML::Node& node) {
   Defaults defaults;
   const std::optional<Entries> entries = ReadEntries(node, "", kDefaultsKeys);
   if (entries) {
-    if (const Entry* entry = entries->Find("temperatures")) {
-      ReadTemperatures(entry->value, "temperatures", &defaults.temperatures);
+    if (const Entry* entry = entries->Find("fit-temperatures")) {
+      ReadTemperatures(entry->value, "fit-temperatures", &defaults.temperatures);
+      if (entry->value.IsMap() && entry->value["mid"]) defaults.fit_request.mid_given = true;
     }
-    if (const Entry* entry = entries->Find("pressure")) {
-      if (const auto pressure_pa = ReadStandardPressure(entry->value, "pressure")) {
+    if (const Entry* entry = entries->Find("standard-pressure")) {
+      if (const auto pressure_pa = ReadStandardPressure(entry->value, "standard-pressure")) {
         defaults.pressure_pa = *pressure_pa;
       }
     }
     if (const Entry* entry = entries->Find("fit-thresholds")) {
       ReadThresholds(entry->value, "fit-thresholds", &defaults.thresholds);
     }
+    ReadFitRequest(*entries, &defaults.fit_request);
   }
   context_.clear();
   return defaults;
 }
 
-bool FileParser::ReadComposition(const YAML::Node& value, Species* species) {
-  const std::string expected_map = "a map of element symbols to atom counts, such as {C: 1, O: 2}";
-  if (!value.IsMap()) {
-    Fail(value, "composition", Describe(value), expected_map);
+bool FileParser::ReadFormula(const YAML::Node& value, Species* species) {
+  const std::string expected = "a chemical formula such as CH4, C2H5OH, (CH3)2CO or HCO+";
+  if (!value.IsScalar()) {
+    Fail(value, "formula", Describe(value), expected);
     return false;
   }
-  if (value.size() == 0) {
-    Fail(value, "composition", "an empty map", expected_map);
+  FormulaError error;
+  const std::optional<ParsedFormula> formula = ParseFormula(value.Scalar(), &error);
+  if (!formula) {
+    // Point at the offending character: the value's column, past an opening quote.
+    YAML::Mark mark = value.Mark();
+    const bool quoted = value.Tag() == "!";
+    if (!mark.is_null()) mark.column += static_cast<int>(error.offset) + (quoted ? 1 : 0);
+    FailText(mark,
+             "formula",
+             "'" + value.Scalar() + "': " + error.found + " at character " +
+                 std::to_string(error.offset + 1) + "; expected " + error.expected);
     return false;
   }
-  bool ok = true;
-  for (auto it = value.begin(); it != value.end(); ++it) {
-    const YAML::Node key_node = it->first;
-    const std::string symbol = key_node.IsScalar() ? key_node.Scalar() : "";
-    if (!key_node.IsScalar() || !AtomicWeightGPerMol(symbol)) {
-      Fail(key_node,
-           "composition",
-           "unknown element " + Describe(key_node),
-           "one of " + JoinWords(KnownElementSymbols()));
-      ok = false;
-      continue;
-    }
-    const std::string key = "composition." + symbol;
-    const bool repeated = std::any_of(species->composition.begin(),
-                                      species->composition.end(),
-                                      [&](const auto& entry) { return entry.first == symbol; });
-    if (repeated) {
-      Fail(key_node, key, "given twice", "each element once");
-      ok = false;
-      continue;
-    }
-    const std::optional<int> count = ReadInteger(it->second, key, "a positive whole atom count");
-    if (!count) {
-      ok = false;
-    } else if (*count < 1 || *count > kMaxAtomCount) {
-      Fail(it->second,
-           key,
-           std::to_string(*count),
-           "a positive whole atom count of at most " + std::to_string(kMaxAtomCount));
-      ok = false;
-    } else {
-      species->composition.emplace_back(symbol, *count);
-    }
-  }
-  return ok;
+  species->composition = formula->counts;
+  species->charge = formula->charge;
+  return true;
 }
 
 std::optional<std::vector<GeometryAtom>> FileParser::ReadGeometry(const YAML::Node& value) {
   const std::string expected_atom = "[symbol, x, y, z] with coordinates in angstrom";
-  if (!IsSequence(value, "geometry", "a list of atoms, each " + expected_atom)) {
+  if (!IsSequence(value, "structure", "a list of atoms, each " + expected_atom)) {
     return std::nullopt;
   }
   if (value.size() == 0) {
-    Fail(value, "geometry", "an empty list", "a list of atoms, each " + expected_atom);
+    Fail(value, "structure", "an empty list", "a list of atoms, each " + expected_atom);
     return std::nullopt;
   }
   std::vector<GeometryAtom> atoms;
   bool ok = true;
   for (std::size_t i = 0; i < value.size(); ++i) {
     const YAML::Node item = value[i];
-    const std::string key = "geometry[" + std::to_string(i) + "]";
+    const std::string key = "structure[" + std::to_string(i) + "]";
     if (!item.IsSequence() || item.size() != 4) {
       Fail(item, key, Describe(item), expected_atom);
       ok = false;
@@ -1016,7 +647,7 @@ std::optional<std::vector<GeometryAtom>> FileParser::ReadGeometry(const YAML::No
   return atoms;
 }
 
-void FileParser::ReadRotation(const YAML::Node& node,
+void FileParser::ReadRotation(const YAML::Node& block,
                               const Entries& entries,
                               bool composition_ok,
                               bool shape_ok,
@@ -1024,7 +655,7 @@ void FileParser::ReadRotation(const YAML::Node& node,
                               Species* species) {
   const Entry* constants_entry = entries.Find("rotational-constants");
   const Entry* moments_entry = entries.Find("moments-of-inertia");
-  const Entry* geometry_entry = entries.Find("geometry");
+  const Entry* geometry_entry = entries.Find("structure");
   if (!shape_ok) return;  // counts and consistency depend on the shape
 
   if (species->shape == Shape::kAtom) {
@@ -1044,9 +675,9 @@ void FileParser::ReadRotation(const YAML::Node& node,
       linear ? "1 value (B) for a linear species" : "3 values (A, B, C) for a nonlinear species";
   if (!constants_entry && !moments_entry && !geometry_entry) {
     if (has_diatomic) return;  // B comes from the diatomic constants
-    Fail(node,
+    Fail(block,
          "rotational-constants",
-         "missing (none of rotational-constants, moments-of-inertia, geometry given)",
+         "missing (none of rotational-constants, moments-of-inertia, structure given)",
          "one of them for a " + ToString(species->shape) + " species");
     return;
   }
@@ -1063,10 +694,7 @@ void FileParser::ReadRotation(const YAML::Node& node,
   const Entry* explicit_entry = constants_entry ? constants_entry : moments_entry;
   if (explicit_entry) {
     const bool moments = explicit_entry == moments_entry;
-    const auto values = ReadPositiveList(
-        explicit_entry->value,
-        explicit_entry->key,
-        moments ? "moment of inertia in amu*angstrom^2" : "rotational constant in cm^-1");
+    const auto values = ReadRotationalList(explicit_entry->value, explicit_entry->key, moments);
     if (values && values->size() != num_expected) {
       Fail(explicit_entry->value, explicit_entry->key, NumberList(*values), count_rule);
     } else if (values) {
@@ -1091,22 +719,22 @@ void FileParser::ReadRotation(const YAML::Node& node,
                                                     species->composition.end());
       if (composition_ok && geometry_counts != composition_counts) {
         Fail(geometry_entry->value,
-             "geometry",
+             "structure",
              "atoms " + CompositionText(geometry_counts),
-             "the atoms of the composition " + CompositionText(composition_counts));
+             "the atoms of the formula " + FormatFormula(species->composition, 0));
       } else if (composition_ok) {
         const RigidRotor rotor = AnalyzeGeometry(*atoms);
         if (rotor.shape == Shape::kAtom) {
           Fail(geometry_entry->value,
-               "geometry",
+               "structure",
                "all atoms at one point",
                "distinct atomic positions");
         } else if (rotor.shape != species->shape) {
           Fail(geometry_entry->value,
-               "geometry",
+               "structure",
                rotor.shape == Shape::kLinear ? "collinear atoms (a linear geometry)"
                                              : "atoms not on one line (a nonlinear geometry)",
-               "a geometry matching shape '" + ToString(species->shape) + "'");
+               "a structure matching shape '" + ToString(species->shape) + "'");
         } else {
           geometry_cm1 = rotor.rotational_constants_cm1;
         }
@@ -1153,7 +781,7 @@ void FileParser::ReadRotation(const YAML::Node& node,
   }
   if (geometry_cm1 && outside_band(*geometry_cm1)) {
     Fail(geometry_entry->value,
-         "geometry",
+         "structure",
          "rotational constants " + NumberList(*geometry_cm1, "{:.6g}") + " cm^-1",
          band);
     geometry_cm1.reset();
@@ -1168,7 +796,7 @@ void FileParser::ReadRotation(const YAML::Node& node,
       Fail(explicit_entry->value,
            explicit_entry->key,
            "rotational constants " + NumberList(*explicit_cm1, "{:.6g}") +
-               " cm^-1 differ from the geometry's " + NumberList(*geometry_cm1, "{:.6g}") +
+               " cm^-1 differ from the structure's " + NumberList(*geometry_cm1, "{:.6g}") +
                " cm^-1 by up to " + fmt::format("{:.3g}", 100.0 * worst) + " %",
            "agreement within " + Number(100.0 * kGeometryConstantsRelativeTolerance) + " %");
     }
@@ -1180,7 +808,7 @@ void FileParser::ReadRotation(const YAML::Node& node,
   }
 }
 
-void FileParser::ReadVibrations(const YAML::Node& node,
+void FileParser::ReadVibrations(const YAML::Node& block,
                                 const Entries& entries,
                                 bool composition_ok,
                                 bool shape_ok,
@@ -1190,7 +818,7 @@ void FileParser::ReadVibrations(const YAML::Node& node,
   const int num_atoms = species->NumAtoms();
   if (!entry) {
     if (shape_ok && composition_ok && species->shape != Shape::kAtom && !has_diatomic) {
-      Fail(node,
+      Fail(block,
            "vibrations",
            "missing",
            "a list of " + ShapeCountRule(species->shape, num_atoms) +
@@ -1324,7 +952,7 @@ std::optional<DiatomicState> FileParser::ReadDiatomicState(const YAML::Node& val
       {"alphae", &c.alphae_cm1, false, -1},
       {"gammae", &c.gammae_cm1, false, -1},
       {"De", &c.de_cm1, false, 0},
-      {"dissociation", &c.dissociation_cm1, true, 1},
+      {"dissociation-energy", &c.dissociation_cm1, true, 1},
       {"energy", &state.energy_cm1, false, 0},
       {"degeneracy", &state.degeneracy, false, 1},
   };
@@ -1380,7 +1008,7 @@ void FileParser::ReadDiatomic(const Entry& entry,
   if (composition_ok && shape_ok &&
       (species->shape != Shape::kLinear || species->NumAtoms() != 2)) {
     Fail(entry.key_node,
-         "diatomic-constants",
+         "rovibrational-constants",
          "given for " + ShapePhrase(species->shape) +
              (species->shape == Shape::kAtom ? "" : " of " + Plural(species->NumAtoms(), "atom")),
          "a diatomic (shape linear, 2 atoms)");
@@ -1388,7 +1016,7 @@ void FileParser::ReadDiatomic(const Entry& entry,
   }
   if (entry.value.IsMap()) {
     std::optional<DiatomicState> state =
-        ReadDiatomicState(entry.value, "diatomic-constants", /*list_form=*/false);
+        ReadDiatomicState(entry.value, "rovibrational-constants", /*list_form=*/false);
     if (!state) return;
     // Map form: the ground electronic state; its degeneracy is that of the ground level.
     state->degeneracy = species->electronic_levels.front().degeneracy;
@@ -1396,24 +1024,24 @@ void FileParser::ReadDiatomic(const Entry& entry,
     return;
   }
   if (!IsSequence(entry.value,
-                  "diatomic-constants",
+                  "rovibrational-constants",
                   "a map of constants, or a list of maps, one per electronic state")) {
     return;
   }
   if (entry.value.size() == 0) {
-    Fail(entry.value, "diatomic-constants", "an empty list", "at least the ground state");
+    Fail(entry.value, "rovibrational-constants", "an empty list", "at least the ground state");
     return;
   }
   if (const Entry* levels = entries.Find("electronic-levels")) {
     Fail(levels->key_node,
          "electronic-levels",
-         "given together with the list form of diatomic-constants",
-         "the electronic states only in diatomic-constants (energy, degeneracy)");
+         "given together with the list form of rovibrational-constants",
+         "the electronic states only in rovibrational-constants (energy, degeneracy)");
   }
   std::vector<DiatomicState> states;
   bool ok = true;
   for (std::size_t i = 0; i < entry.value.size(); ++i) {
-    const std::string key = "diatomic-constants[" + std::to_string(i) + "]";
+    const std::string key = "rovibrational-constants[" + std::to_string(i) + "]";
     const auto state = ReadDiatomicState(entry.value[i], key, /*list_form=*/true);
     if (!state) {
       ok = false;
@@ -1444,19 +1072,19 @@ void FileParser::ReadNuclearSpin(const Entry& entry,
       (species->shape != Shape::kLinear || species->composition.size() != 1 ||
        species->composition.front().second != 2)) {
     Fail(entry.key_node,
-         "nuclear-spin",
+         "spin-statistics",
          "given for a species that is not a homonuclear diatomic",
-         "nuclear-spin only for a homonuclear diatomic such as H2 or D2");
+         "spin-statistics only for a homonuclear diatomic such as H2 or D2");
     return;
   }
-  const auto entries = ReadEntries(entry.value, "nuclear-spin", kNuclearSpinKeys);
+  const auto entries = ReadEntries(entry.value, "spin-statistics", kNuclearSpinKeys);
   if (!entries) return;
   NuclearSpin spin;
   bool ok = true;
   for (const auto& [name, target] :
-       {std::pair<const char*, double*>{"even", &spin.even_weight}, {"odd", &spin.odd_weight}}) {
+       {std::pair<const char*, double*>{"even-j", &spin.even_weight}, {"odd-j", &spin.odd_weight}}) {
     const Entry* weight = entries->Find(name);
-    const std::string key = std::string("nuclear-spin.") + name;
+    const std::string key = std::string("spin-statistics.") + name;
     if (!weight) {
       Fail(entry.value, key, "missing", "a nuclear-spin weight of at least 0");
       ok = false;
@@ -1471,15 +1099,15 @@ void FileParser::ReadNuclearSpin(const Entry& entry,
     }
   }
   if (ok && spin.even_weight == 0.0 && spin.odd_weight == 0.0) {
-    Fail(entry.value, "nuclear-spin", "both weights 0", "at least one positive weight");
+    Fail(entry.value, "spin-statistics", "both weights 0", "at least one positive weight");
     ok = false;
   }
   if (const Entry* mixture = entries->Find("mixture")) {
-    const auto text = ReadString(mixture->value, "nuclear-spin.mixture", "equilibrium or normal");
+    const auto text = ReadString(mixture->value, "spin-statistics.mixture", "equilibrium or normal");
     const std::optional<SpinMixture> parsed = text ? ParseSpinMixture(*text) : std::nullopt;
     if (text && !parsed) {
       Fail(mixture->value,
-           "nuclear-spin.mixture",
+           "spin-statistics.mixture",
            Describe(mixture->value),
            "equilibrium or normal");
     }
@@ -1498,12 +1126,12 @@ void FileParser::ReadTorsions(const Entry& entry,
                               Species* species) {
   if (shape_ok && species->shape != Shape::kNonlinear) {
     Fail(entry.key_node,
-         "torsions",
+         "hindered-rotors",
          "given for " + ShapePhrase(species->shape),
-         "torsions only for a nonlinear species");
+         "hindered-rotors only for a nonlinear species");
     return;
   }
-  if (!IsSequence(entry.value, "torsions", "a list of maps with keys " + JoinWords(kTorsionKeys))) {
+  if (!IsSequence(entry.value, "hindered-rotors", "a list of maps with keys " + JoinWords(kTorsionKeys))) {
     return;
   }
   std::vector<bool> replaced(species->vibrations_cm1.size(), false);
@@ -1511,7 +1139,7 @@ void FileParser::ReadTorsions(const Entry& entry,
   bool all_ok = true;
   for (std::size_t i = 0; i < entry.value.size(); ++i) {
     const YAML::Node item = entry.value[i];
-    const std::string key = "torsions[" + std::to_string(i) + "]";
+    const std::string key = "hindered-rotors[" + std::to_string(i) + "]";
     const std::size_t before = problems_->size();
     const auto entries = ReadEntries(item, key, kTorsionKeys);
     if (!entries) {
@@ -1536,6 +1164,7 @@ void FileParser::ReadTorsions(const Entry& entry,
           }
           if (match) {
             replaced[*match] = true;
+            torsion.mode_index = static_cast<int>(*match);
           } else {
             Fail(replaces->value,
                  key + ".replaces",
@@ -1586,34 +1215,34 @@ void FileParser::ReadTorsions(const Entry& entry,
            "one of the two");
     }
 
-    if (const Entry* symmetry = entries->Find("symmetry")) {
+    if (const Entry* symmetry = entries->Find("symmetry-number")) {
       const auto n =
-          ReadInteger(symmetry->value, key + ".symmetry", "a whole number of at least 1");
+          ReadInteger(symmetry->value, key + ".symmetry-number", "a whole number of at least 1");
       if (n && *n < 1) {
         Fail(
-            symmetry->value, key + ".symmetry", std::to_string(*n), "a whole number of at least 1");
+            symmetry->value, key + ".symmetry-number", std::to_string(*n), "a whole number of at least 1");
       } else if (n) {
         torsion.symmetry = *n;
       }
     }
 
-    const Entry* barrier = entries->Find("barrier");
-    const Entry* fourier = entries->Find("fourier");
+    const Entry* barrier = entries->Find("barrier-height");
+    const Entry* fourier = entries->Find("cosine-terms");
     if (barrier && fourier) {
       Fail(fourier->key_node,
-           key + ".fourier",
-           "given together with barrier",
+           key + ".cosine-terms",
+           "given together with barrier-height",
            "only one of the two");
     } else if (barrier) {
-      const auto v0 = ReadEnergy(barrier->value, key + ".barrier");
+      const auto v0 = ReadEnergy(barrier->value, key + ".barrier-height");
       if (v0 && *v0 < 0.0) {
         Fail(barrier->value,
-             key + ".barrier",
+             key + ".barrier-height",
              Describe(barrier->value) + " is negative",
              "a barrier height of at least 0");
       } else if (v0 && *v0 > kMaxTorsionBarrierJPerMol) {
         Fail(barrier->value,
-             key + ".barrier",
+             key + ".barrier-height",
              Describe(barrier->value),
              "a barrier height of at most " + Number(kMaxTorsionBarrierJPerMol * 1.0e-3) +
                  " kJ/mol");
@@ -1622,10 +1251,10 @@ void FileParser::ReadTorsions(const Entry& entry,
       }
     } else if (fourier) {
       const std::string term_text = "[k, V_k] with k a whole number >= 1 and V_k a molar energy";
-      if (IsSequence(fourier->value, key + ".fourier", "a list of terms " + term_text)) {
+      if (IsSequence(fourier->value, key + ".cosine-terms", "a list of terms " + term_text)) {
         for (std::size_t t = 0; t < fourier->value.size(); ++t) {
           const YAML::Node term = fourier->value[t];
-          const std::string term_key = key + ".fourier[" + std::to_string(t) + "]";
+          const std::string term_key = key + ".cosine-terms[" + std::to_string(t) + "]";
           if (!term.IsSequence() || term.size() != 2) {
             Fail(term, term_key, Describe(term), term_text);
             continue;
@@ -1655,9 +1284,9 @@ void FileParser::ReadTorsions(const Entry& entry,
       }
     } else {
       Fail(item,
-           key + ".barrier",
-           "missing (neither barrier nor fourier)",
-           "one of the two (barrier: 0 for a free rotor)");
+           key + ".barrier-height",
+           "missing (neither barrier-height nor cosine-terms)",
+           "one of the two (barrier-height: 0 for a free rotor)");
     }
     if (problems_->size() != before) {
       all_ok = false;
@@ -1668,78 +1297,290 @@ void FileParser::ReadTorsions(const Entry& entry,
   if (all_ok) species->torsions = torsions;
 }
 
-std::optional<Species> FileParser::ReadSpecies(const YAML::Node& node,
+void FileParser::ReadFitRequest(const Entries& entries, FitRequest* request) {
+  if (const Entry* entry = entries.Find("fit-objective")) {
+    const std::string expected = "minimax or least-squares";
+    const auto text = ReadString(entry->value, entry->key, expected);
+    const std::optional<FitObjective> objective = text ? ParseFitObjective(*text) : std::nullopt;
+    if (objective) {
+      request->objective = objective;
+    } else if (text) {
+      Fail(entry->value, entry->key, Describe(entry->value), expected);
+    }
+  }
+  if (const Entry* entry = entries.Find("fit-extrapolation-guard")) {
+    const std::string expected =
+        "off, or FACTOR:BAND such as 1.25:0.2 (1 < FACTOR <= 4, 0 < BAND <= 1)";
+    const auto text = ReadString(entry->value, entry->key, expected);
+    const std::optional<ExtrapolationGuard> guard =
+        text ? ParseExtrapolationGuard(*text) : std::nullopt;
+    if (guard) {
+      request->extrapolation_guard = guard;
+    } else if (text) {
+      Fail(entry->value, entry->key, Describe(entry->value), expected);
+    }
+  }
+  if (const Entry* entry = entries.Find("fit-error-scales")) {
+    const std::optional<Entries> scales = ReadEntries(entry->value, entry->key, kErrorScaleKeys);
+    if (!scales) return;
+    ErrorScales merged = request->error_scales.value_or(ErrorScales{});
+    bool ok = true;
+    const std::pair<const char*, double*> fields[] = {{"cp", &merged.cp_relative},
+                                                      {"enthalpy", &merged.h_over_rt},
+                                                      {"entropy", &merged.s_over_r}};
+    for (const auto& [name, field] : fields) {
+      if (const Entry* scale = scales->Find(name)) {
+        const auto value = ReadPositive(scale->value, entry->key + "." + name, "dimensionless weight");
+        if (value) {
+          *field = *value;
+        } else {
+          ok = false;
+        }
+      }
+    }
+    if (ok) request->error_scales = merged;
+  }
+}
+
+std::optional<std::vector<double>> FileParser::ReadRotationalList(const YAML::Node& value,
+                                                                  const std::string& key,
+                                                                  bool moments) {
+  // Unit factors to the stored unit: cm^-1 for constants (a frequency nu in Hz is
+  // B = nu / (100 c) cm^-1), amu angstrom^2 for moments.
+  struct Unit {
+    const char* name;
+    double factor;
+  };
+  constexpr double kHzToCm1 = 1.0 / (100.0 * constants::kSpeedOfLight);
+  static const Unit kConstantUnits[] = {{"cm^-1", 1.0}, {"GHz", 1.0e9 * kHzToCm1},
+                                        {"MHz", 1.0e6 * kHzToCm1}};
+  static const Unit kMomentUnits[] = {{"amu*A^2", 1.0},
+                                      {"amu A^2", 1.0},
+                                      {"amu*angstrom^2", 1.0},
+                                      {"kg*m^2", 1.0 / constants::kAmuAngstrom2},
+                                      {"kg m^2", 1.0 / constants::kAmuAngstrom2}};
+  const std::string what = moments ? "moment of inertia (a number in amu*A^2, or with one of "
+                                     "the units amu*A^2, kg*m^2)"
+                                   : "rotational constant (a number in cm^-1, or with one of the "
+                                     "units cm^-1, GHz, MHz)";
+  if (!IsSequence(value, key, "a list of positive values, each a " + what)) return std::nullopt;
+  std::vector<double> numbers;
+  bool ok = true;
+  for (std::size_t i = 0; i < value.size(); ++i) {
+    const YAML::Node item = value[i];
+    const std::string item_key = key + "[" + std::to_string(i) + "]";
+    std::optional<double> number;
+    if (item.IsScalar()) {
+      const std::string& text = item.Scalar();
+      number = ParsePlainNumber(text);
+      if (!number) {
+        const std::size_t split = text.find_first_of(" akgcGM");
+        const std::optional<double> magnitude =
+            split == std::string::npos ? std::nullopt : ParsePlainNumber(text.substr(0, split));
+        std::string unit = split == std::string::npos ? "" : text.substr(split);
+        unit.erase(0, unit.find_first_not_of(' '));
+        if (magnitude) {
+          const Unit* begin = moments ? std::begin(kMomentUnits) : std::begin(kConstantUnits);
+          const Unit* end = moments ? std::end(kMomentUnits) : std::end(kConstantUnits);
+          for (const Unit* known = begin; known != end; ++known) {
+            if (unit == known->name) number = *magnitude * known->factor;
+          }
+        }
+      }
+    }
+    if (!number || !std::isfinite(*number)) {
+      Fail(item, item_key, Describe(item), "a positive " + what);
+      ok = false;
+    } else if (*number <= 0.0) {
+      Fail(item, item_key, Describe(item) + " is not positive", "a positive " + what);
+      ok = false;
+    } else {
+      numbers.push_back(*number);
+    }
+  }
+  if (!ok) return std::nullopt;
+  return numbers;
+}
+
+void FileParser::ReadSpinMultiplicity(const Entry& entry, const Entries& entries, Species* species) {
+  if (entries.Find("electronic-levels")) {
+    Fail(entry.key_node,
+         entry.key,
+         "given together with electronic-levels (its first level is the ground level)",
+         "only one of the two: spin-multiplicity is a single ground level of degeneracy 2S+1");
+    return;
+  }
+  if (const Entry* states = entries.Find("rovibrational-constants");
+      states && states->value.IsSequence()) {
+    Fail(entry.key_node,
+         entry.key,
+         "given together with the list form of rovibrational-constants",
+         "the ground-state degeneracy only in rovibrational-constants[0].degeneracy");
+    return;
+  }
+  const auto multiplicity = ReadInteger(entry.value, entry.key, "a whole number 2S+1 of at least 1");
+  if (!multiplicity) return;
+  if (*multiplicity < 1 || *multiplicity > kMaxDegeneracy) {
+    Fail(entry.value,
+         entry.key,
+         std::to_string(*multiplicity),
+         "a whole number 2S+1 within [1, " + Number(kMaxDegeneracy) + "]");
+    return;
+  }
+  species->electronic_levels = {ElectronicLevel{0.0, static_cast<double>(*multiplicity)}};
+}
+
+void FileParser::CheckKramers(const YAML::Node& label_node,
+                              const Entries& entries,
+                              const Species& species) {
+  const int electrons = species.NumElectrons();
+  if (electrons % 2 == 0 || species.electronic_levels.empty() ||
+      species.electronic_levels.front().degeneracy != 1.0) {
+    return;
+  }
+  // Point at what set the ground level: the explicit level, the multiplicity, or the label.
+  YAML::Node at = label_node;
+  std::string key = "electronic-levels";
+  std::string how = "(by default)";
+  if (const Entry* levels = entries.Find("electronic-levels");
+      levels && levels->value.IsSequence() && levels->value.size() > 0) {
+    at = levels->value[0];
+    key = "electronic-levels[0]";
+    how = "(given)";
+  } else if (const Entry* multiplicity = entries.Find("spin-multiplicity")) {
+    at = multiplicity->value;
+    key = "spin-multiplicity";
+    how = "(given)";
+  } else if (const Entry* states = entries.Find("rovibrational-constants");
+             states && states->value.IsSequence() && states->value.size() > 0) {
+    at = states->value[0];
+    key = "rovibrational-constants[0].degeneracy";
+  }
+  Fail(at,
+       key,
+       "ground-level degeneracy 1 " + how + " for a species of " + std::to_string(electrons) +
+           " electrons (an odd number: by Kramers' theorem every level is at least doubly "
+           "degenerate)",
+       "an odd-electron species needs its ground-state degeneracy: add electronic-levels or "
+       "spin-multiplicity (2 for a doublet radical such as CH3)");
+}
+
+bool FileParser::CheckFormat(const YAML::Node& root) {
+  const std::string format_line = std::string(kFormatKey) + ": " + std::to_string(kFormatVersion);
+  if (!root.IsMap()) {
+    Fail(root, "", Describe(root), "a map starting with '" + format_line + "'");
+    return false;
+  }
+  const auto first = root.begin();
+  const bool first_is_format =
+      first != root.end() && first->first.IsScalar() && first->first.Scalar() == kFormatKey;
+  if (!first_is_format) {
+    // Nodes are handles whose assignment copies content, so the finds are kept as iterators.
+    auto format_key = root.end(), species = root.end();
+    for (auto it = root.begin(); it != root.end(); ++it) {
+      if (!it->first.IsScalar()) continue;
+      if (it->first.Scalar() == kFormatKey && format_key == root.end()) format_key = it;
+      if (it->first.Scalar() == "species") species = it;
+    }
+    if (format_key != root.end()) {
+      Fail(format_key->first,
+           std::string(kFormatKey),
+           "not the first key",
+           "the format key first, before every other key");
+    } else if (species != root.end() && species->second.IsSequence()) {
+      Fail(first->first,
+           "",
+           "a species file of the first layout (a 'species' list of 'name' items, no '" +
+               std::string(kFormatKey) + "' key)",
+           "the layout of version " + std::to_string(kFormatVersion) + "; " + kUpgradeHint);
+    } else {
+      Fail(first != root.end() ? first->first : root,
+           std::string(kFormatKey),
+           "missing",
+           "'" + format_line + "' as the first key (the format and its version)");
+    }
+    return false;
+  }
+  const YAML::Node& version = first->second;
+  if (!version.IsScalar() || version.Scalar() != std::to_string(kFormatVersion)) {
+    Fail(version,
+         std::string(kFormatKey),
+         "version " + Describe(version),
+         "version " + std::to_string(kFormatVersion) +
+             " (the version this build reads); files of the first layout have no version: " +
+             kUpgradeHint);
+    return false;
+  }
+  return true;
+}
+
+std::optional<Species> FileParser::ReadSpecies(const YAML::Node& label_node,
+                                               const YAML::Node& node,
                                                int index,
                                                const Defaults& defaults,
                                                std::vector<NameRecord>* names) {
   context_ = "species #" + std::to_string(index + 1);
-  // Name the species in every message, including those about its other keys, when it has a name.
-  if (node.IsMap()) {
-    for (auto it = node.begin(); it != node.end(); ++it) {
-      if (it->first.IsScalar() && it->first.Scalar() == "name" && it->second.IsScalar() &&
-          !it->second.Scalar().empty()) {
-        context_ = "species '" + it->second.Scalar() + "'";
-        break;
-      }
-    }
-  }
   const std::size_t before = problems_->size();
+  Species species;
+  species.location = Where(label_node);
+  const std::string label = label_node.IsScalar() ? label_node.Scalar() : "";
+  const bool label_bad = !label_node.IsScalar() || label.empty() ||
+                         std::any_of(label.begin(), label.end(), [](char c) {
+                           return static_cast<unsigned char>(c) <= ' ' || c == 0x7f;
+                         });
+  if (label_bad) {
+    Fail(label_node,
+         "label",
+         Describe(label_node),
+         "a species label (a non-empty text without spaces or control characters) as the key");
+  } else {
+    species.name = label;
+    context_ = "species '" + label + "'";
+    names->push_back(NameRecord{label, Where(label_node), file_index_});
+  }
   const std::optional<Entries> entries_or = ReadEntries(node, "", kSpeciesKeys);
   if (!entries_or) return std::nullopt;
   const Entries& entries = *entries_or;
 
-  Species species;
-  species.location = Where(node);
   species.temperatures = defaults.temperatures;
   species.standard_pressure_pa = defaults.pressure_pa;
   species.thresholds = defaults.thresholds;
-
-  if (const Entry* entry = entries.Find("name")) {
-    const auto name = ReadString(entry->value, "name", "a species name");
-    const bool has_space = name && std::any_of(name->begin(), name->end(), [](char c) {
-                             return static_cast<unsigned char>(c) <= ' ' || c == 0x7f;
-                           });
-    if (name && (name->empty() || has_space)) {
-      Fail(entry->value,
-           "name",
-           Describe(entry->value),
-           "a non-empty name without spaces or control characters");
-    } else if (name) {
-      species.name = *name;
-      context_ = "species '" + *name + "'";
-      names->push_back(NameRecord{*name, Where(entry->value), file_index_});
-    }
-  } else {
-    Fail(node, "name", "missing", "a unique species name");
-  }
+  species.fit_request = defaults.fit_request;
 
   bool composition_ok = false;
-  if (const Entry* entry = entries.Find("composition")) {
-    composition_ok = ReadComposition(entry->value, &species);
+  if (const Entry* entry = entries.Find("formula")) {
+    composition_ok = ReadFormula(entry->value, &species);
   } else {
-    Fail(node, "composition", "missing", "a map of element symbols to atom counts");
+    Fail(label_node, "formula", "missing", "a chemical formula such as CH4, C2H5OH or HCO+");
   }
 
-  if (const Entry* entry = entries.Find("charge")) {
-    if (const auto charge = ReadInteger(entry->value, "charge", "a whole number")) {
-      species.charge = *charge;
-    }
-  }
-
-  if (const Entry* entry = entries.Find("formation-enthalpy")) {
-    if (const auto h = ReadEnergy(entry->value, "formation-enthalpy")) {
+  const Entry* enthalpy_298 = entries.Find("formation-enthalpy");
+  const Entry* enthalpy_0 = entries.Find("formation-enthalpy-0k");
+  if (enthalpy_298 && enthalpy_0) {
+    Fail(enthalpy_0->key_node,
+         "formation-enthalpy-0k",
+         "given together with formation-enthalpy",
+         "only one of the two (the 298.15 K value is derived from the 0 K one)");
+  } else if (enthalpy_298 || enthalpy_0) {
+    const Entry* entry = enthalpy_298 ? enthalpy_298 : enthalpy_0;
+    if (const auto h = ReadEnergy(entry->value, entry->key)) {
       if (std::fabs(*h) > kMaxFormationEnthalpyJPerMol) {
         Fail(entry->value,
-             "formation-enthalpy",
+             entry->key,
              Describe(entry->value),
              "a formation enthalpy of magnitude at most " +
                  Number(kMaxFormationEnthalpyJPerMol * 1.0e-3) + " kJ/mol");
-      } else {
+      } else if (enthalpy_298) {
         species.formation_enthalpy_j_per_mol = *h;
+      } else {
+        species.formation_enthalpy_0k_j_per_mol = *h;
       }
     }
   } else {
-    Fail(node, "formation-enthalpy", "missing", "the enthalpy of formation at 298.15 K");
+    Fail(label_node,
+         "formation-enthalpy",
+         "missing",
+         "the enthalpy of formation at 298.15 K (or formation-enthalpy-0k, at 0 K)");
   }
 
   bool shape_ok = false;
@@ -1755,7 +1596,7 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& node,
       shape_ok = true;
     }
   } else {
-    Fail(node, "shape", "missing", "atom, linear or nonlinear");
+    Fail(label_node, "shape", "missing", "atom, linear or nonlinear");
   }
   if (shape_ok && composition_ok) {
     const int num_atoms = species.NumAtoms();
@@ -1765,7 +1606,7 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& node,
     if ((species.shape == Shape::kAtom && num_atoms != 1) || num_atoms < min_atoms) {
       Fail(shape_entry->value,
            "shape",
-           "'" + ToString(species.shape) + "' for a composition of " + Plural(num_atoms, "atom"),
+           "'" + ToString(species.shape) + "' for a formula of " + Plural(num_atoms, "atom"),
            species.shape == Shape::kAtom
                ? "exactly 1 atom for shape 'atom'"
                : "at least " + std::to_string(min_atoms) + " atoms for shape '" +
@@ -1789,20 +1630,23 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& node,
       }
     }
   } else if (shape_ok && species.shape != Shape::kAtom) {
-    Fail(node,
+    Fail(label_node,
          "symmetry-number",
          "missing",
          "the external symmetry number for a " + ToString(species.shape) + " species");
   }
 
-  const Entry* diatomic_entry = entries.Find("diatomic-constants");
+  const Entry* diatomic_entry = entries.Find("rovibrational-constants");
   // Electronic levels first: the map form of diatomic-constants takes the ground degeneracy.
   const Entry* levels_entry = entries.Find("electronic-levels");
   if (levels_entry) ReadElectronicLevels(levels_entry->value, &species);
+  if (const Entry* entry = entries.Find("spin-multiplicity")) {
+    ReadSpinMultiplicity(*entry, entries, &species);
+  }
   if (diatomic_entry) ReadDiatomic(*diatomic_entry, entries, composition_ok, shape_ok, &species);
   const bool has_diatomic = diatomic_entry != nullptr;
 
-  ReadRotation(node, entries, composition_ok, shape_ok, has_diatomic, &species);
+  ReadRotation(label_node, entries, composition_ok, shape_ok, has_diatomic, &species);
   if (has_diatomic && species.rotational_constants_cm1.empty() &&
       !species.diatomic_states.empty()) {
     // Rigid-rotor stand-in: B_0 = B_e - alpha_e / 2 of the ground state.
@@ -1810,7 +1654,7 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& node,
     species.rotational_constants_cm1 = {ground.be_cm1 - 0.5 * ground.alphae_cm1};
   }
   const std::size_t before_vibrations = problems_->size();
-  ReadVibrations(node, entries, composition_ok, shape_ok, has_diatomic, &species);
+  ReadVibrations(label_node, entries, composition_ok, shape_ok, has_diatomic, &species);
   const bool vibrations_ok = problems_->size() == before_vibrations;
 
   if (const Entry* entry = entries.Find("frequency-scale")) {
@@ -1838,26 +1682,30 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& node,
       species.centrifugal_distortion_cm1 = *d;
     }
   }
-  if (const Entry* entry = entries.Find("temperatures")) {
-    ReadTemperatures(entry->value, "temperatures", &species.temperatures);
+  if (const Entry* entry = entries.Find("fit-temperatures")) {
+    ReadTemperatures(entry->value, "fit-temperatures", &species.temperatures);
+    if (entry->value.IsMap() && entry->value["mid"]) species.fit_request.mid_given = true;
   }
-  if (const Entry* entry = entries.Find("pressure")) {
-    if (const auto pressure_pa = ReadStandardPressure(entry->value, "pressure")) {
+  ReadFitRequest(entries, &species.fit_request);
+  if (const Entry* entry = entries.Find("standard-pressure")) {
+    if (const auto pressure_pa = ReadStandardPressure(entry->value, "standard-pressure")) {
       species.standard_pressure_pa = *pressure_pa;
     }
   }
   if (const Entry* entry = entries.Find("fit-thresholds")) {
     ReadThresholds(entry->value, "fit-thresholds", &species.thresholds);
   }
-  if (const Entry* entry = entries.Find("nuclear-spin")) {
+  if (const Entry* entry = entries.Find("spin-statistics")) {
     ReadNuclearSpin(*entry, composition_ok, shape_ok, &species);
   }
-  if (const Entry* entry = entries.Find("torsions")) {
+  if (const Entry* entry = entries.Find("hindered-rotors")) {
     ReadTorsions(*entry, shape_ok, vibrations_ok && composition_ok, &species);
   }
 
+  if (problems_->size() == before && composition_ok) CheckKramers(label_node, entries, species);
   if (problems_->size() != before) return std::nullopt;
-  std::string canonical = "sevenfold species v2\n";
+  std::string canonical = "sevenfold species v3\n";
+  AppendCanonical(label_node, &canonical);
   AppendCanonical(node, &canonical);
   canonical += defaults_canonical_;
   species.input_digest = Sha256Hex(canonical);
@@ -1914,6 +1762,7 @@ std::optional<std::vector<Species>> FileParser::ParseSplit(const SpeciesItemsSpl
   Defaults defaults;
   try {
     const YAML::Node root = YAML::Load(split.skeleton);
+    if (!top.CheckFormat(root)) return std::nullopt;
     const std::optional<Entries> entries = top.ReadEntries(root, "", kTopKeys);
     if (!entries) return std::nullopt;
     const Entry* list = entries->Find("species");
@@ -1946,9 +1795,10 @@ std::optional<std::vector<Species>> FileParser::ParseSplit(const SpeciesItemsSpl
       FileParser parser(text, file_name_, file_index_, &item_problems);
       parser.line_offset_ = item.first_line;
       parser.defaults_canonical_ = top.defaults_canonical_;
-      // The item's text alone is a block sequence of exactly this one item.
-      if (root.IsSequence() && root.size() == 1) {
-        result.species = parser.ReadSpecies(root[0], i, defaults, &result.names);
+      // The item's text alone is a map of exactly this one label.
+      if (root.IsMap() && root.size() == 1) {
+        result.species =
+            parser.ReadSpecies(root.begin()->first, root.begin()->second, i, defaults, &result.names);
       }
       if (!result.species || item_problems.size() > 0) failed = true;
     } catch (...) {
@@ -1983,10 +1833,11 @@ std::vector<Species> FileParser::ParseWholeDocument(std::vector<NameRecord>* nam
                      1,
                      1,
                      where.ToString() +
-                         ": the file holds no data; expected a map with a "
-                         "'species' list");
+                         ": the file holds no data; expected a map starting with '" +
+                         std::string(kFormatKey) + ": " + std::to_string(kFormatVersion) + "'");
       return {};
     }
+    if (!CheckFormat(root)) return {};
     const std::optional<Entries> top = ReadEntries(root, "", kTopKeys);
     if (!top) return {};
     Defaults defaults;
@@ -1997,18 +1848,22 @@ std::vector<Species> FileParser::ParseWholeDocument(std::vector<NameRecord>* nam
       if (problems_->size() == before) defaults_canonical_ = DefaultsCanonical(entry->value);
     }
     const Entry* list = top->Find("species");
+    const std::string expected_map = "a map from species labels to their data";
     if (!list) {
-      Fail(root, "species", "missing", "a list of species");
+      Fail(root, "species", "missing", expected_map);
       return {};
     }
-    if (!IsSequence(list->value, "species", "a list of species")) return {};
+    if (!list->value.IsMap()) {
+      Fail(list->value, "species", Describe(list->value), expected_map);
+      return {};
+    }
     if (list->value.size() == 0) {
-      Fail(list->value, "species", "an empty list", "at least one species");
+      Fail(list->value, "species", "an empty map", "at least one species");
       return {};
     }
-    for (std::size_t i = 0; i < list->value.size(); ++i) {
-      std::optional<Species> species =
-          ReadSpecies(list->value[i], static_cast<int>(i), defaults, names);
+    int index = 0;
+    for (auto it = list->value.begin(); it != list->value.end(); ++it, ++index) {
+      std::optional<Species> species = ReadSpecies(it->first, it->second, index, defaults, names);
       if (species) species_list.push_back(std::move(*species));
     }
   } catch (const YAML::Exception& error) {
@@ -2033,57 +1888,11 @@ void CheckDuplicateNames(const std::vector<NameRecord>& names, Problems* problem
     problems->Add(record.file_index,
                   record.where.line,
                   record.where.column,
-                  record.where.ToString() + ": species '" + record.name + "': name: '" +
-                      record.name + "' already defined at " + it->second->where.ToString() +
-                      "; expected names unique across all species files");
+                  record.where.ToString() + ": species '" + record.name + "': label '" +
+                      record.name + "' given twice, here and at " +
+                      it->second->where.ToString() +
+                      "; expected each label once across all species files read together");
   }
-}
-
-// The whole file, refusing anything above kMaxSpeciesFileBytes. Problems are recorded, not thrown.
-std::optional<std::string> ReadFileText(const std::string& path,
-                                        int file_index,
-                                        Problems* problems) {
-  errno = 0;
-  std::FILE* file = std::fopen(path.c_str(), "rb");
-  if (file == nullptr) {
-    problems->Add(file_index,
-                  0,
-                  0,
-                  path + ": cannot open species file: " + std::strerror(errno) +
-                      "; expected a readable file");
-    return std::nullopt;
-  }
-  std::string text;
-  char buffer[1 << 16];
-  while (true) {
-    const std::size_t num_read = std::fread(buffer, 1, sizeof buffer, file);
-    text.append(buffer, num_read);
-    if (text.size() > kMaxSpeciesFileBytes) {
-      std::fclose(file);
-      problems->Add(file_index,
-                    0,
-                    0,
-                    path +
-                        ": species file is larger than 16 MiB, refused before parsing; "
-                        "expected a file of at most 16 MiB");
-      return std::nullopt;
-    }
-    if (num_read < sizeof buffer) {
-      if (std::ferror(file)) {
-        const int error_number = errno;
-        std::fclose(file);
-        problems->Add(file_index,
-                      0,
-                      0,
-                      path + ": cannot read species file: " + std::strerror(error_number) +
-                          "; expected a readable file");
-        return std::nullopt;
-      }
-      break;
-    }
-  }
-  std::fclose(file);
-  return text;
 }
 
 }  // namespace
@@ -2100,8 +1909,12 @@ std::vector<Species> ReadSpeciesFiles(const std::vector<std::string>& paths, int
   std::vector<Species> all_species;
   for (std::size_t i = 0; i < paths.size(); ++i) {
     const int file_index = static_cast<int>(i);
-    const std::optional<std::string> text = ReadFileText(paths[i], file_index, &problems);
-    if (!text) continue;
+    std::string problem;
+    const std::optional<std::string> text = detail::ReadSpeciesFileText(paths[i], &problem);
+    if (!text) {
+      problems.Add(file_index, 0, 0, problem);
+      continue;
+    }
     std::vector<Species> species;
     FileParser(*text, paths[i], file_index, &problems).Parse(&names, true, num_jobs, &species);
     for (Species& one : species) all_species.push_back(std::move(one));

@@ -1,6 +1,8 @@
 // SPDX-License-Identifier: MIT
 #include "statmech/species_thermo.h"
 
+#include "statmech/formation_enthalpy.h"
+
 #include <cmath>
 #include <optional>
 #include <string>
@@ -25,9 +27,7 @@ using constants::kGasConstant;
 using constants::kReferenceTemperature;
 using constants::kWavenumberToKelvin;
 
-// A torsion's replaces_cm1 picks the harmonic mode within this distance: input quoted to 0.1
 // cm^-1 or better always matches, distinct modes of a real molecule rarely lie this close.
-constexpr double kTorsionMatchToleranceCm1 = 0.5;
 
 struct SpeciesThermo::Model {
   std::string name;
@@ -162,20 +162,15 @@ SpeciesThermo::SpeciesThermo(const Species& species, double highest_temperature_
     }
     for (std::size_t i = 0; i < species.torsions.size(); ++i) {
       const Torsion& torsion = species.torsions[i];
-      std::size_t best = modes_cm1.size();
-      for (std::size_t k = 0; k < modes_cm1.size(); ++k) {
-        const double distance = std::abs(modes_cm1[k] - torsion.replaces_cm1);
-        if (!replaced[k] && distance <= kTorsionMatchToleranceCm1 &&
-            (best == modes_cm1.size() || distance < std::abs(modes_cm1[best] - torsion.replaces_cm1))) {
-          best = k;
-        }
+      // The reader resolved the mode (Torsion::mode_index); the engine only checks the index.
+      const int index = torsion.mode_index;
+      if (index < 0 || index >= static_cast<int>(modes_cm1.size()) ||
+          replaced[static_cast<std::size_t>(index)]) {
+        fail(fmt::format("torsion {} (replaces {} cm^-1) has mode index {}, which is not an "
+                         "unreplaced one of the {} vibrations",
+                         i, torsion.replaces_cm1, index, modes_cm1.size()));
       }
-      if (best == modes_cm1.size()) {
-        fail(fmt::format("torsion {} replaces a vibration of {} cm^-1, but no unreplaced vibration "
-                         "lies within {} cm^-1 of it",
-                         i, torsion.replaces_cm1, kTorsionMatchToleranceCm1));
-      }
-      replaced[best] = true;
+      replaced[static_cast<std::size_t>(index)] = true;
       if (!(torsion.rotational_constant_cm1 > 0.0) || torsion.symmetry < 1) {
         fail(fmt::format("torsion {}: rotational constant must be positive and symmetry at least 1 "
                          "(got {} cm^-1, {})",
@@ -203,7 +198,19 @@ SpeciesThermo::SpeciesThermo(const Species& species, double highest_temperature_
 
   model.h298_minus_h0_j_per_mol =
       model.EnthalpyAboveZero(model.TotalMoments(kReferenceTemperature), kReferenceTemperature);
+  // The one place a formation enthalpy given at 0 K becomes the 298.15 K value (the species
+  // module cannot do it: it needs this model's H(298.15) - H(0)).
+  if (species.formation_enthalpy_0k_j_per_mol) {
+    model.formation_enthalpy_j_per_mol = FormationEnthalpy298FromZeroK(
+        species, *species.formation_enthalpy_0k_j_per_mol, model.h298_minus_h0_j_per_mol);
+  }
 }
+
+double SpeciesThermo::FormationEnthalpy298JPerMol() const {
+  return model_->formation_enthalpy_j_per_mol;
+}
+
+double SpeciesThermo::H298MinusH0JPerMol() const { return model_->h298_minus_h0_j_per_mol; }
 
 SpeciesThermo::~SpeciesThermo() = default;
 SpeciesThermo::SpeciesThermo(SpeciesThermo&&) noexcept = default;

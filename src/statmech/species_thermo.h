@@ -36,6 +36,12 @@ class SpeciesThermo {
   ThermoPoint At(double t_k) const;
   std::vector<ThermoPoint> Tabulate(const std::vector<double>& t_k) const;
 
+  // dfH(298.15 K), J/mol: as the species gives it, or converted from its 0 K value
+  // (statmech/formation_enthalpy.h) with this model's H(298.15) - H(0).
+  double FormationEnthalpy298JPerMol() const;
+  // H(298.15 K) - H(0) of the model, J/mol.
+  double H298MinusH0JPerMol() const;
+
  private:
   struct Model;
   std::unique_ptr<Model> model_;
