@@ -179,11 +179,11 @@ TEST_CASE("check exits 2 on a malformed species file or entries file", "[cli]") 
   CHECK_THAT(bad_species.err, Catch::StartsWith("error: tests/data/bad-vibration.yaml:9:"));
   CHECK(bad_species.out.empty());
 
-  WriteWhole(dir / "bad.entries", "sevenfold-entries 2\n");
+  WriteWhole(dir / "bad.entries", "sevenfold-entries 3\n");
   const RunResult bad_entries =
       Run("check " + kReference + " --entries " + (dir / "bad.entries"));
   CHECK(bad_entries.exit_status == 2);
-  CHECK_THAT(bad_entries.err, Catch::Contains((dir / "bad.entries") + ":1:19: found format version 2"));
+  CHECK_THAT(bad_entries.err, Catch::Contains((dir / "bad.entries") + ":1:19: found format version 3"));
   // No report is written for input that could not be read.
   CHECK(dir.Names() == std::vector<std::string>{"bad.entries", "m.entries"});
 }
@@ -231,7 +231,7 @@ TEST_CASE("fit writes byte-identical files with one and with two jobs", "[cli]")
   REQUIRE(Run("fit " + kReference + " --jobs 1 -o " + (dir / "one.entries")).exit_status == 0);
   REQUIRE(Run("fit " + kReference + " --jobs 2 -o " + (dir / "two.entries")).exit_status == 0);
   const std::string one = ReadWhole(dir / "one.entries");
-  CHECK_THAT(one, Catch::StartsWith("sevenfold-entries 1\n"));
+  CHECK_THAT(one, Catch::StartsWith("sevenfold-entries 2\n"));
   CHECK(one == ReadWhole(dir / "two.entries"));
 }
 
