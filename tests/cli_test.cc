@@ -269,7 +269,9 @@ TEST_CASE("eval of the fitted demo entries reproduces the exact tables within th
   const RunResult fitted = Run("eval " + entries + " --format csv");
   REQUIRE(exact.exit_status == 0);
   REQUIRE(fitted.exit_status == 0);
-  CHECK(exact.out.substr(0, exact.out.find('\n')) == fitted.out.substr(0, fitted.out.find('\n')));
+  // eval's CSV has table's columns plus outside_range (docs/cli.md).
+  CHECK(exact.out.substr(0, exact.out.find('\n')) + ",outside_range" ==
+        fitted.out.substr(0, fitted.out.find('\n')));
   const auto exact_rows = ParseTableCsv(exact.out);
   const auto fitted_rows = ParseTableCsv(fitted.out);
   REQUIRE(exact_rows.size() == fitted_rows.size());
@@ -285,6 +287,91 @@ TEST_CASE("eval of the fitted demo entries reproduces the exact tables within th
     CHECK(std::abs(fit_row.h - row.h) * 1000.0 / (kGasConstant * t) <= 0.002);
     CHECK(std::abs(fit_row.s - row.s) / kGasConstant <= 0.002);
   }
+}
+
+TEST_CASE("eval marks every value outside the fitted range and warns once per species",
+          "[cli]") {
+  const ScratchDir dir;
+  const std::string entries = dir / "m.entries";
+  REQUIRE(Run("fit " + kReference + " -o " + entries).exit_status == 0);
+  // The reference species are fitted over [200, 6000] K (tests/data/reference-species.yaml).
+  const RunResult text = Run("eval " + entries + " --species Ar --species N2 --at 100,1000,7000");
+  REQUIRE(text.exit_status == 0);
+  CHECK_THAT(text.out, Catch::Contains("    100.00 "));
+  CHECK_THAT(text.out, Catch::Contains("* outside the entry's fitted range: the polynomial "
+                                       "extrapolates"));
+  // --species order, not file order (N2 comes first in the file).
+  CHECK(text.out.find("Ar  (ideal gas") < text.out.find("N2  (ideal gas"));
+  CHECK(text.err.find("species 'Ar': warning: 2 of 3 temperatures (100 to 7000 K) outside the "
+                      "fitted range [200, 6000] K") != std::string::npos);
+  CHECK(text.err.find("species 'N2': warning:") != std::string::npos);
+  CHECK(text.err.find("species 'Ar': warning:", text.err.find("species 'Ar': warning:") + 1) ==
+        std::string::npos);
+  const RunResult csv = Run("eval " + entries + " --species Ar --at 100,1000 --format csv");
+  CHECK_THAT(csv.out, Catch::EndsWith(",true\n") || Catch::Contains(",true\nAr,1000,"));
+  CHECK_THAT(csv.out, Catch::Contains(",false\n"));
+  const RunResult json = Run("eval " + entries + " --species Ar --at 100 --format json");
+  CHECK_THAT(json.out, Catch::Contains("\"outside_range\": true}"));
+  // Far outside, where a polynomial is still finite, eval still evaluates; where it overflows,
+  // it refuses rather than print inf.
+  CHECK(Run("eval " + entries + " --species Ar --at 0.5").exit_status == 0);
+  const RunResult overflow = Run("eval " + entries + " --at 1e300");
+  CHECK(overflow.exit_status == 2);
+  CHECK(overflow.out.empty());
+  CHECK_THAT(overflow.err, Catch::Contains("non-finite"));
+}
+
+TEST_CASE("malformed numbers and unknown names get the error prefix and exit 2", "[cli]") {
+  const ScratchDir dir;
+  const std::string entries = dir / "m.entries";
+  REQUIRE(Run("fit " + kReference + " -o " + entries).exit_status == 0);
+  for (const std::string& bad :
+       {std::string("--at 0x3e8"), std::string("--at=\" 1000\""), std::string("--at 1000,abc"),
+        std::string("--at -5"), std::string("--at 0"), std::string("--at inf"),
+        std::string("--from 300 --to 200 --step 10"), std::string("--from 0x10 --to 20 --step 1"),
+        std::string("--from 10 --to 20 --step 0"), std::string("--from 1 --to 1e300 --step 1e-6")}) {
+    INFO(bad);
+    const RunResult run = Run("eval " + entries + " " + bad);
+    CHECK(run.exit_status == 2);
+    CHECK_THAT(run.err, Catch::StartsWith("error: --"));
+    CHECK(run.out.empty());
+  }
+  for (const std::string& bad : {std::string("--mid 0x3e8"), std::string("--mid=\" 1000\""),
+                                 std::string("--mid 1000x"), std::string("--mid 5")}) {
+    INFO(bad);
+    const RunResult run = Run("fit tests/data/reference-species.yaml -q " + bad + " -o " +
+                              (dir / "never.entries"));
+    CHECK(run.exit_status == 2);
+    CHECK_THAT(run.err, Catch::StartsWith("error: --mid '"));
+  }
+  const RunResult typo = Run("eval " + entries + " --species CO");
+  CHECK(typo.exit_status == 2);
+  CHECK_THAT(typo.err, Catch::Contains("--species CO: no such species in " + entries));
+  CHECK_THAT(typo.err, Catch::Contains("close matches: CO2"));
+  const RunResult case_typo = Run("table tests/data/reference-species.yaml --species ar");
+  CHECK(case_typo.exit_status == 2);
+  CHECK_THAT(case_typo.err, Catch::Contains("close matches: Ar"));
+}
+
+TEST_CASE("check after fit with options needs none of them retyped", "[cli]") {
+  // Issue 12 item 6: the entry records how it was made, and check regenerates that way.
+  const ScratchDir dir;
+  const std::string entries = dir / "m.entries";
+  REQUIRE(Run("fit tests/data/reference-species.yaml -q --allow-poor-fits --mid 1500 "
+              "--objective least-squares --extrapolation-guard off -o " + entries)
+              .exit_status == 0);
+  const RunResult check =
+      Run("check tests/data/reference-species.yaml -q --entries " + entries);
+  INFO(check.out << check.err);
+  CHECK(check.out.find("model-changed") == std::string::npos);
+  CHECK(check.out.find("curve-changed") == std::string::npos);
+  CHECK(check.out.find("quality-changed") == std::string::npos);
+  // An option that contradicts the record is named, with what to do.
+  const RunResult other = Run("check tests/data/reference-species.yaml -q --mid auto --entries " +
+                              entries);
+  CHECK(other.exit_status == 1);
+  CHECK_THAT(other.out, Catch::Contains("t-mid-choice: fixed at 1500 K in the entry, auto "
+                                        "requested by --mid; drop --mid"));
 }
 
 TEST_CASE("the committed demo entries pass check against the demo species", "[cli]") {
