@@ -532,6 +532,17 @@ TEST_CASE("entries that cannot be read back are refused by the writer", "[entrie
   file.entries.push_back(file.entries[0]);
   CHECK_THROWS_WITH(FormatEntries(file),
                     "cannot write entry \"CO\": the species appears twice");
+  // Whatever the reader would refuse, the writer refuses: here a formation enthalpy that
+  // H(298.15 K) of the coefficients contradicts, and a charge beyond the bounds.
+  file = SampleFile();
+  file.entries[0].formation_enthalpy_j_per_mol += 1000.0;
+  CHECK_THROWS_WITH(FormatEntries(file),
+                    Catch::StartsWith("cannot write the entries: the reader would refuse them: "
+                                      "the written text:11:1: found formation enthalpy"));
+  file = SampleFile();
+  file.entries[0].charge = 1000;
+  CHECK_THROWS_WITH(FormatEntries(file),
+                    Catch::Contains("found charge 1000, expected a charge within [-100, 100]"));
 }
 
 }  // namespace sevenfold
