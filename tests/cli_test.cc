@@ -344,6 +344,10 @@ TEST_CASE("malformed numbers and unknown names get the error prefix and exit 2",
     CHECK(run.exit_status == 2);
     CHECK_THAT(run.err, Catch::StartsWith("error: --mid '"));
   }
+  // The argument parser's own complaints get the same prefix.
+  const RunResult format = Run("eval " + entries + " --format xml");
+  CHECK(format.exit_status == 2);
+  CHECK_THAT(format.err, Catch::StartsWith("error: --format: 'xml': expected text, csv or json"));
   const RunResult typo = Run("eval " + entries + " --species CO");
   CHECK(typo.exit_status == 2);
   CHECK_THAT(typo.err, Catch::Contains("--species CO: no such species in " + entries));

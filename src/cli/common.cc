@@ -173,10 +173,17 @@ void AddTemperatureOptions(CLI::App& command, TemperatureChoice& choice) {
 }
 
 void AddFormatOption(CLI::App& command, TableFormat& format) {
-  const std::map<std::string, TableFormat> formats = {
-      {"text", TableFormat::kText}, {"csv", TableFormat::kCsv}, {"json", TableFormat::kJson}};
-  command.add_option("--format", format, "Output format: text, csv or json")
-      ->transform(CLI::CheckedTransformer(formats))
+  command
+      .add_option_function<std::string>(
+          "--format",
+          [&format](const std::string& text) {
+            const std::optional<TableFormat> parsed = ParseTableFormat(text);
+            if (!parsed) {
+              throw CLI::ValidationError("--format", "'" + text + "': expected text, csv or json");
+            }
+            format = *parsed;
+          },
+          "Output format: text, csv or json")
       ->default_str("text");
 }
 
