@@ -1,16 +1,12 @@
 // SPDX-License-Identifier: MIT
 // ParseEntries and ReadEntriesFile: the reader of the entries format (docs/entries-format.md).
 // Every complaint names file:line:column, what was found and what was expected.
-#include <cerrno>
 #include <charconv>
 #include <cmath>
-#include <cstring>
-#include <fstream>
 #include <initializer_list>
 #include <limits>
 #include <map>
 #include <optional>
-#include <sstream>
 #include <string>
 #include <string_view>
 #include <system_error>
