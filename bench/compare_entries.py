@@ -12,17 +12,17 @@ Usage: bench/compare_entries.py OLD.entries NEW.entries THR_CP THR_H THR_S
 (THR_*: the fit thresholds of the species, to normalise the errors; docs/performance.md)"""
 import sys
 def blocks(path):
-    out = {}; name = None; cur = []
+    """Records of an entries file (format 2): a header line '"NAME" record-version ...' at the
+    left margin and the indented field lines below it (docs/entries-format.md)."""
+    out = {}; name = None
     for line in open(path):
-        if line.startswith('species "'):
-            name = line.split('"')[1]; cur = [line]
-        elif name is not None:
-            cur.append(line)
-            if line.strip() == 'end':
-                out[name] = cur; name = None
+        if line.startswith('"'):
+            name = line.split('"')[1]; out[name] = [line]
+        elif name is not None and line.startswith((' ', '\t')) and line.strip():
+            out[name].append(line)
     return out
 def fields(block):
-    return {l.split()[0]: l.split()[1:] for l in block}
+    return {l.split()[0]: l.split()[1:] for l in block[1:]}
 def worst(f, thr):
     w = 0.0
     for key, t in zip(('cp-error', 'h-error', 's-error'), thr):
@@ -37,7 +37,7 @@ def curves(a, t):
     s = a[0] * math.log(t) + t * (a[1] + t * (a[2] / 2 + t * (a[3] / 3 + t * a[4] / 4))) + a[6]
     return cp, h, s
 def curve_change(fo, fn, thr):
-    low, mid, high = (float(x) for x in fo['temperatures-k'])
+    low, mid, high = (float(x) for x in fo['temperatures-k'][1::2])  # low X mid X high X
     worst = 0.0
     t = low
     while t <= high:

@@ -2,6 +2,7 @@
 // Tests of the core helpers: quantities with units, atomic weights, SHA-256.
 #include <catch2/catch.hpp>
 #include <cmath>
+#include <filesystem>
 #include <fstream>
 #include <set>
 #include <sstream>
@@ -11,7 +12,9 @@
 #include "core/digest.h"
 #include "core/elements.h"
 #include "core/error.h"
+#include "core/read_file.h"
 #include "core/units.h"
+#include "core/utf8.h"
 
 namespace sevenfold {
 namespace {
@@ -170,3 +173,76 @@ TEST_CASE("SHA-256 pads correctly at every block boundary", "[core]") {
 }
 
 }  // namespace sevenfold
+
+// The one UTF-8 validator of both readers. Byte sequences from the Unicode Standard, table 3-7
+// (well-formed UTF-8 byte sequences), and section 23.7 (noncharacters).
+TEST_CASE("the UTF-8 validator accepts well-formed text and locates the first bad byte",
+          "[core]") {
+  using sevenfold::FindUtf8Problem;
+  using sevenfold::Utf8ProblemKind;
+  CHECK_FALSE(FindUtf8Problem("plain ASCII\twith tab\r\nand lines\n").has_value());
+  // U+00E9, U+03C0, U+20AC, U+1F600, U+10FFFD: 2-, 3- and 4-byte forms, the last plane's top.
+  CHECK_FALSE(FindUtf8Problem("\xc3\xa9 \xcf\x80 \xe2\x82\xac \xf0\x9f\x98\x80 \xf4\x8f\xbf\xbd")
+                  .has_value());
+  struct Case {
+    const char* text;
+    Utf8ProblemKind kind;
+    int column;
+  };
+  const Case cases[] = {
+      {"ab\xed\xa0\x80", Utf8ProblemKind::kIllFormed, 3},     // surrogate U+D800
+      {"ab\xe0\x80\xaf", Utf8ProblemKind::kIllFormed, 3},     // overlong form of '/'
+      {"ab\xc0\xaf", Utf8ProblemKind::kIllFormed, 3},         // overlong 2-byte form
+      {"ab\xf4\x90\x80\x80", Utf8ProblemKind::kIllFormed, 3}, // U+110000, above U+10FFFF
+      {"ab\xf5\x80\x80\x80", Utf8ProblemKind::kIllFormed, 3}, // lead byte F5
+      {"ab\x80", Utf8ProblemKind::kIllFormed, 3},             // stray continuation byte
+      {"ab\xe2\x82", Utf8ProblemKind::kIllFormed, 3},         // sequence cut short
+      {"ab\xef\xbf\xbf", Utf8ProblemKind::kNoncharacter, 3},  // U+FFFF
+      {"ab\xef\xbf\xbe", Utf8ProblemKind::kNoncharacter, 3},  // U+FFFE
+      {"ab\xef\xb7\x90", Utf8ProblemKind::kNoncharacter, 3},  // U+FDD0
+      {"ab\xf0\x9f\xbf\xbf", Utf8ProblemKind::kNoncharacter, 3},  // U+1FFFF
+      {"ab\x7f", Utf8ProblemKind::kControl, 3},               // DEL
+      {"ab\x01", Utf8ProblemKind::kControl, 3},
+  };
+  for (const Case& c : cases) {
+    INFO(c.text);
+    const auto problem = FindUtf8Problem(c.text);
+    REQUIRE(problem.has_value());
+    CHECK(problem->kind == c.kind);
+    CHECK(problem->line == 1);
+    CHECK(problem->column == c.column);
+    CHECK(problem->offset == 2);
+  }
+  // A raw NUL inside the text, on the third line, after a 2-byte character.
+  const std::string with_nul = std::string("x\ny\n\xc3\xa9") + '\0';
+  const auto nul = FindUtf8Problem(with_nul);
+  REQUIRE(nul.has_value());
+  CHECK(nul->kind == Utf8ProblemKind::kControl);
+  CHECK(nul->byte == 0);
+  CHECK(nul->line == 3);
+  CHECK(nul->column == 2);
+}
+
+TEST_CASE("input files are read whole up to the 16 MiB cap", "[core]") {
+  namespace fs = std::filesystem;
+  const fs::path dir = fs::temp_directory_path() / "sevenfold_core_read_file";
+  fs::create_directories(dir);
+  const std::string small = (dir / "small.txt").string();
+  std::ofstream(small, std::ios::binary) << std::string("abc\0def", 7);
+  CHECK(sevenfold::ReadInputFile(small, "test file") == std::string("abc\0def", 7));
+  // Exactly at the cap is accepted, one byte more is refused.
+  const std::string at_cap = (dir / "at-cap.txt").string();
+  std::ofstream(at_cap, std::ios::binary) << std::string(sevenfold::kMaxInputFileBytes, 'x');
+  CHECK(sevenfold::ReadInputFile(at_cap, "test file").size() == sevenfold::kMaxInputFileBytes);
+  std::ofstream(at_cap, std::ios::binary | std::ios::app) << 'x';
+  CHECK_THROWS_WITH(sevenfold::ReadInputFile(at_cap, "test file"),
+                    at_cap + ": test file is larger than 16 MiB, refused before parsing; "
+                             "expected a file of at most 16 MiB");
+  // An endless device is refused at the cap, not read forever.
+  CHECK_THROWS_WITH(sevenfold::ReadInputFile("/dev/zero", "entries file"),
+                    Catch::Contains("/dev/zero: entries file is larger than 16 MiB"));
+  CHECK_THROWS_WITH(sevenfold::ReadInputFile((dir / "missing").string(), "entries file"),
+                    (dir / "missing").string() + ": cannot open entries file: No such file or "
+                                                 "directory; expected a readable file");
+  fs::remove_all(dir);
+}

@@ -20,15 +20,17 @@
 #include "core/atomic_file.h"
 #include "core/constants.h"
 #include "core/error.h"
+#include "core/read_file.h"
 #include "entries/entries.h"
 #include "fit/polynomial.h"
 
 namespace sevenfold {
 namespace {
 
-// Arbitrary serialisation test data: these numbers carry no physical claim. They include values
-// whose shortest round-trip text is long (0.1 + 0.2), tiny and huge magnitudes, a subnormal and
-// a negative zero, so the round trip is tested on the hard cases of double <-> text.
+// Arbitrary serialisation test data: these numbers carry no physical claim beyond what the reader
+// demands (finite curves, the formation enthalpy equal to H(298.15 K) of the coefficients). They
+// include values whose shortest round-trip text is long (0.1 + 0.2), tiny and huge magnitudes, a
+// subnormal and a negative zero, so the round trip is tested on the hard cases of double <-> text.
 Entry SampleEntry() {
   Entry entry;
   entry.name = "CO";
@@ -38,9 +40,10 @@ Entry SampleEntry() {
   entry.polynomial.t_mid_k = 1000.0;
   entry.polynomial.t_high_k = 6000.0;
   entry.polynomial.low = {3.5, 0.1 + 0.2, -5.0e-7, 2.4e-9, -1.4e-12, -14344.0, 3.75};
-  entry.polynomial.high = {-0.0, 1.0e-300, 5e-324, 1.7976931348623157e308, -6.75e-15,
-                           -14151.5, 2.0 / 3.0};
-  entry.formation_enthalpy_j_per_mol = -110530.0;
+  entry.polynomial.high = {-0.0, 1.0e-300, 5e-324, 6.1e-11, -6.75e-15, -14151.5, 2.0 / 3.0};
+  // H(298.15 K) of the low coefficients, as the reader requires.
+  entry.formation_enthalpy_j_per_mol = constants::kGasConstant * constants::kReferenceTemperature *
+                                       HOverRT(entry.polynomial.low, constants::kReferenceTemperature);
   entry.reference_pressure_pa = 100000.0;
   RangeQuality& lo = entry.quality.low_range;
   lo.num_points = 91;
@@ -69,7 +72,7 @@ Entry SampleEntry() {
   hi.rms_s_over_r = 0.0001;
   hi.max_g_over_rt = 0.0002;
   hi.max_g_error_t_k = 1025.0;
-  hi.rms_g_over_rt = 6e-5;
+  hi.rms_g_over_rt = 1.7976931348623157e308;  // the largest double
   ExtrapolationCheck& x = entry.quality.extrapolation;
   x.min_cp_over_r_below = 3.49;
   x.max_cp_over_r_below = 3.51;
@@ -77,39 +80,47 @@ Entry SampleEntry() {
   x.max_cp_over_r_above = 4.75;
   entry.provenance.input_sha256 = std::string(32, 'a') + std::string(32, '7');
   entry.provenance.tool_version = "0.1.0";
-  entry.provenance.model_options = "rotor=quantum vibration=harmonic t_mid=auto";
+  entry.fit_settings.objective = FitObjective::kLeastSquares;
+  entry.fit_settings.error_scales = {0.01, 0.003, 0.0025};
+  entry.fit_settings.extrapolation_guard = {true, 1.5, 0.1};
+  entry.fit_settings.t_mid_fixed = true;
+  entry.fit_settings.continuous_second_derivative = true;
+  entry.provenance.model_options = "rotor=quantum vibration=harmonic";
   entry.provenance.source_file = "species/co.yaml";
   return entry;
 }
 
 // The canonical text of SampleEntry() alone, line by line (numbers in the comments).
 const char* const kSampleText =
-    "sevenfold-entries 1\n"  // 1
-    "# Fitted thermochemistry written by sevenfold; the format is described in "
-    "docs/entries-format.md.\n"  // 2
+    "sevenfold-entries 2\n"  // 1
+    "# Fitted thermochemistry written by sevenfold; the format is described in docs/entries-format.md.\n"  // 2
     "\n"  // 3
-    "species \"CO\"\n"  // 4
+    "\"CO\" record-version 2 field-lines 25\n"  // 4
     "  composition C 1 O 1\n"  // 5
     "  charge 0\n"  // 6
     "  phase gas\n"  // 7
-    "  temperatures-k 200 1000 6000\n"  // 8
+    "  temperatures-k low 200 mid 1000 high 6000\n"  // 8
     "  coefficients-low 3.5 0.30000000000000004 -5e-07 2.4e-09 -1.4e-12 -14344 3.75\n"  // 9
-    "  coefficients-high -0 1e-300 5e-324 1.7976931348623157e+308 -6.75e-15 -14151.5 "
-    "0.6666666666666666\n"  // 10
-    "  formation-enthalpy-j-per-mol -110530\n"  // 11
+    "  coefficients-high -0 1e-300 5e-324 6.1e-11 -6.75e-15 -14151.5 0.6666666666666666\n"  // 10
+    "  formation-enthalpy-j-per-mol 276.0622659828193\n"  // 11
     "  reference-pressure-pa 100000\n"  // 12
-    "  grid-points low 91 high 121\n"  // 13
-    "  cp-error low max 0.0012 at-k 200 rms 0.0004 high max 0.0025 at-k 6000 rms 0.001\n"  // 14
-    "  h-error low max 0.0003 at-k 298.15 rms 0.0001 high max 0.0004 at-k 1000 rms 0.0002\n"
-    "  s-error low max 0.0002 at-k 990 rms 0.0001 high max 0.0003 at-k 1000 rms 0.0001\n"
-    "  g-error low max 0.0001 at-k 990 rms 5e-05 high max 0.0002 at-k 1025 rms 6e-05\n"  // 17
-    "  extrapolation sane below 3.49 3.51 above 4.5 4.75\n"  // 18
-    "  verdict pass\n"  // 19
-    "  input-sha256 aaaaaaaaaaaaaaaaaaaaaaaaaaaaaaaa77777777777777777777777777777777\n"  // 20
-    "  tool-version \"0.1.0\"\n"  // 21
-    "  model \"rotor=quantum vibration=harmonic t_mid=auto\"\n"  // 22
-    "  source \"species/co.yaml\"\n"  // 23
-    "end\n";  // 24
+    "  fit-objective least-squares\n"  // 13
+    "  fit-error-scales cp 0.01 h 0.003 s 0.0025\n"  // 14
+    "  extrapolation-guard factor 1.5 band 0.1\n"  // 15
+    "  t-mid-choice fixed\n"  // 16
+    "  cp-curvature-at-mid continuous\n"  // 17
+    "  grid-points low 91 high 121\n"  // 18
+    "  cp-error low max 0.0012 at-k 200 rms 0.0004 high max 0.0025 at-k 6000 rms 0.001\n"  // 19
+    "  h-error low max 0.0003 at-k 298.15 rms 0.0001 high max 0.0004 at-k 1000 rms 0.0002\n"  // 20
+    "  s-error low max 0.0002 at-k 990 rms 0.0001 high max 0.0003 at-k 1000 rms 0.0001\n"  // 21
+    "  g-error low max 0.0001 at-k 990 rms 5e-05 high max 0.0002 at-k 1025 rms 1.7976931348623157e+308\n"  // 22
+    "  extrapolation-cp-over-r sane below min 3.49 max 3.51 above min 4.5 max 4.75\n"  // 23
+    "  form-limit not-evaluated\n"  // 24
+    "  verdict pass\n"  // 25
+    "  input-sha256 aaaaaaaaaaaaaaaaaaaaaaaaaaaaaaaa77777777777777777777777777777777\n"  // 26
+    "  tool-version \"0.1.0\"\n"  // 27
+    "  model \"rotor=quantum vibration=harmonic\"\n"  // 28
+    "  source \"species/co.yaml\"\n";  // 29
 
 EntriesFile SampleFile() {
   EntriesFile file;
@@ -160,7 +171,7 @@ std::string ReadWhole(const std::string& path) {
 TEST_CASE("entries are written in the canonical layout", "[entries]") {
   CHECK(FormatEntries(SampleFile()) == kSampleText);
   CHECK(FormatEntries(EntriesFile{}) ==
-        "sevenfold-entries 1\n# Fitted thermochemistry written by sevenfold; the format is "
+        "sevenfold-entries 2\n# Fitted thermochemistry written by sevenfold; the format is "
         "described in docs/entries-format.md.\n");
 }
 
@@ -175,6 +186,9 @@ TEST_CASE("writing, reading and writing again gives identical bytes and doubles"
   failing.quality.extrapolation.sane = false;
   failing.quality.extrapolation.message =
       "above the range: Cp/R = 1.8 at 9000 K is outside the sane band [2, 8.5]";
+  failing.quality.form_limit = {true, 1.31, true, 300.0, 4500.0};
+  failing.fit_settings = EntryFitSettings{};
+  failing.fit_settings.extrapolation_guard.enabled = false;
   failing.provenance.model_options = "back\\slash\nnewline \x01 control";
   file.entries.push_back(failing);
 
@@ -207,17 +221,31 @@ TEST_CASE("writing, reading and writing again gives identical bytes and doubles"
     CHECK(b.provenance.input_sha256 == a.provenance.input_sha256);
     CHECK(b.provenance.model_options == a.provenance.model_options);
     CHECK(b.provenance.source_file == a.provenance.source_file);
+    CHECK(b.fit_settings.objective == a.fit_settings.objective);
+    CHECK(b.fit_settings.error_scales.s_over_r == a.fit_settings.error_scales.s_over_r);
+    CHECK(b.fit_settings.extrapolation_guard.enabled == a.fit_settings.extrapolation_guard.enabled);
+    CHECK(b.fit_settings.extrapolation_guard.factor == a.fit_settings.extrapolation_guard.factor);
+    CHECK(b.fit_settings.t_mid_fixed == a.fit_settings.t_mid_fixed);
+    CHECK(b.fit_settings.continuous_second_derivative ==
+          a.fit_settings.continuous_second_derivative);
+    CHECK(b.quality.form_limit.computed == a.quality.form_limit.computed);
+    CHECK(b.quality.form_limit.AtFormLimit() == a.quality.form_limit.AtFormLimit());
+    CHECK(b.quality.form_limit.best_threshold_ratio == a.quality.form_limit.best_threshold_ratio);
+    CHECK(b.quality.form_limit.passing_t_high_k == a.quality.form_limit.passing_t_high_k);
   }
-  CHECK(read.entries[1].location.ToString() == "round.entries:26:1");
+  CHECK(read.entries[1].location.ToString() == "round.entries:31:1");
+  CHECK(first.find("  form-limit at-limit best-threshold-ratio 1.31 widest-passing-range-k low 300 "
+                   "high 4500\n") != std::string::npos);
+  CHECK(first.find("  extrapolation-guard off\n") != std::string::npos);
   CHECK(std::signbit(read.entries[0].polynomial.high[0]));  // -0 stays negative zero
 }
 
 TEST_CASE("comments, blank lines, CRLF and any field order are accepted", "[entries]") {
   std::string text = kSampleText;
   text = Edit(text, "  charge 0\n", "# a comment line\n\n  charge 0   # trailing comment\n");
-  // Move the phase line to the end of the block.
-  text = Edit(text, "  phase gas\n", "");
-  text = Edit(text, "end\n", "  phase gas\nend\n");
+  // Move the phase line to the end of the record; a blank line inside a record carries nothing.
+  text = Edit(text, "  phase gas\n", "\n");
+  text += "  phase gas\n";
   std::string crlf;
   for (char c : text) crlf += c == '\n' ? std::string("\r\n") : std::string(1, c);
   CHECK(FormatEntries(ParseEntries(text, "t")) == kSampleText);
@@ -264,29 +292,57 @@ TEST_CASE("malformed entries files are rejected with file:line:column, found and
   };
 
   SECTION("wrong version") {
-    CHECK(error_of(Edit(good, "sevenfold-entries 1", "sevenfold-entries 2")) ==
-          "bad.entries:1:19: found format version 2, expected 1 (the version this build reads)");
+    CHECK(error_of(Edit(good, "sevenfold-entries 2", "sevenfold-entries 3")) ==
+          "bad.entries:1:19: found format version 3, expected 2 (the version this build reads)");
+  }
+  SECTION("the record layout of version 1 is refused with a message naming the change") {
+    const std::string old =
+        "sevenfold-entries 1\n\nspecies \"CO\"\n  composition C 1 O 1\nend\n";
+    CHECK_THAT(error_of(old),
+               Catch::StartsWith("bad.entries:1:19: found format version 1, whose records are "
+                                 "\"species NAME\" ... \"end\" blocks; expected 2"));
+    CHECK_THAT(error_of(Edit(good, "\"CO\" record-version 2 field-lines 25", "species \"CO\"")),
+               Catch::StartsWith("bad.entries:4:1: found \"species\" at the left margin: the "
+                                 "\"species NAME\" ... \"end\" blocks of format version 1 were "
+                                 "replaced in version 2"));
+    CHECK_THAT(error_of(good + "end\n"),
+               Catch::StartsWith("bad.entries:30:1: found \"end\" at the left margin: the "
+                                 "\"species NAME\" ... \"end\" blocks"));
   }
   SECTION("wrong header") {
-    CHECK(error_of(Edit(good, "sevenfold-entries 1", "thermo entries")) ==
-          "bad.entries:1:1: found \"thermo\", expected the header \"sevenfold-entries 1\"");
+    CHECK(error_of(Edit(good, "sevenfold-entries 2", "thermo entries")) ==
+          "bad.entries:1:1: found \"thermo\", expected the header \"sevenfold-entries 2\"");
     CHECK(error_of("") ==
-          "bad.entries:1:1: found end of file, expected the header \"sevenfold-entries 1\"");
-    CHECK(error_of(Edit(good, "sevenfold-entries 1", "sevenfold-entries one")) ==
+          "bad.entries:1:1: found end of file, expected the header \"sevenfold-entries 2\"");
+    CHECK(error_of(Edit(good, "sevenfold-entries 2", "sevenfold-entries one")) ==
           "bad.entries:1:19: found \"one\", expected an integer (the format version)");
   }
-  SECTION("truncated block") {
+  SECTION("record header") {
+    CHECK(error_of(Edit(good, "record-version 2", "record-version 1")) ==
+          "bad.entries:4:21: found record-version 1 in record \"CO\", expected 2 (the format "
+          "version of this file)");
+    CHECK(error_of(Edit(good, "field-lines 25", "field-lines 0")) ==
+          "bad.entries:4:35: found field-lines 0, expected a count from 1 to 1000");
+    CHECK(error_of(Edit(good, "\"CO\" record-version", "CO record-version")) ==
+          "bad.entries:4:1: found \"CO\" at the left margin, expected a record header \"NAME\" "
+          "record-version 2 field-lines N (field lines are indented)");
+  }
+  SECTION("truncated record") {
     CHECK(error_of(good.substr(0, good.find("  model"))) ==
-          "bad.entries:22:1: found end of file inside the block of species \"CO\" (opened at "
-          "line 4), expected \"end\"");
-    CHECK(error_of(Edit(good, "end\n", "") + good.substr(good.find("species"))) ==
-          "bad.entries:24:1: found \"species\" inside the block of species \"CO\" (opened at "
-          "line 4), expected \"end\" first");
+          "bad.entries:28:1: found end of file after 23 of the 25 field lines of record \"CO\" "
+          "(header at line 4), expected 25 (a truncated file?)");
+    const std::string record = good.substr(good.find("\"CO\""));
+    CHECK(error_of(good.substr(0, good.find("  model")) + Edit(record, "\"CO\"", "\"N2\"")) ==
+          "bad.entries:28:1: found the string \"N2\" at the left margin after 23 of the 25 field "
+          "lines of record \"CO\" (header at line 4), expected the remaining field lines, "
+          "indented");
+    CHECK(error_of(good + "  phase gas\n") ==
+          "bad.entries:30:3: found field line 26 of record \"CO\" whose header (line 4) states "
+          "25, expected a record header at the left margin");
   }
   SECTION("missing field") {
-    CHECK(error_of(Edit(good, "  charge 0\n", "")) ==
-          "bad.entries:23:1: found \"end\" but species \"CO\" has no \"charge\" line, expected "
-          "one before \"end\"");
+    CHECK(error_of(Edit(Edit(good, "  charge 0\n", ""), "field-lines 25", "field-lines 24")) ==
+          "bad.entries:4:1: found record \"CO\" without a \"charge\" line, expected one");
   }
   SECTION("non-numeric number") {
     CHECK(error_of(Edit(good, "-5e-07", "-5e-07x")) ==
@@ -300,21 +356,22 @@ TEST_CASE("malformed entries files are rejected with file:line:column, found and
   SECTION("NaN and infinity") {
     CHECK(error_of(Edit(good, "3.75\n", "nan\n")) ==
           "bad.entries:9:75: found \"nan\", expected a finite number (coefficient a7)");
-    CHECK(error_of(Edit(good, "-110530", "inf")) ==
+    CHECK(error_of(Edit(good, "276.0622659828193", "inf")) ==
           "bad.entries:11:32: found \"inf\", expected a finite number (the formation enthalpy "
           "in J/mol)");
-    CHECK(error_of(Edit(good, "-110530", "1e999")) ==
+    CHECK(error_of(Edit(good, "276.0622659828193", "1e999")) ==
           "bad.entries:11:32: found \"1e999\", expected a finite number (the formation enthalpy "
           "in J/mol)");
   }
   SECTION("duplicate species") {
-    const std::string block = good.substr(good.find("species"));
-    CHECK(error_of(good + "\n" + block) ==
-          "bad.entries:26:9: found species \"CO\" a second time (first at line 4), expected each "
+    const std::string record = good.substr(good.find("\"CO\""));
+    CHECK(error_of(good + "\n" + record) ==
+          "bad.entries:31:1: found species \"CO\" a second time (first at line 4), expected each "
           "species once");
   }
   SECTION("duplicate field") {
-    CHECK(error_of(Edit(good, "  phase gas\n", "  phase gas\n  phase gas\n")) ==
+    CHECK(error_of(Edit(Edit(good, "  phase gas\n", "  phase gas\n  phase gas\n"),
+                        "field-lines 25", "field-lines 26")) ==
           "bad.entries:8:3: found a second \"phase\" line in species \"CO\" (first at line 7), "
           "expected each field once");
   }
@@ -322,9 +379,10 @@ TEST_CASE("malformed entries files are rejected with file:line:column, found and
     CHECK(error_of(Edit(good, "  charge 0\n", "  colour blue\n")) ==
           "bad.entries:6:3: found unknown field \"colour\", expected one of composition, charge, "
           "phase, temperatures-k, coefficients-low, coefficients-high, "
-          "formation-enthalpy-j-per-mol, reference-pressure-pa, grid-points, cp-error, h-error, "
-          "s-error, g-error, extrapolation, extrapolation-note, verdict, failure, input-sha256, "
-          "tool-version, model, source or end");
+          "formation-enthalpy-j-per-mol, reference-pressure-pa, fit-objective, fit-error-scales, "
+          "extrapolation-guard, t-mid-choice, cp-curvature-at-mid, grid-points, cp-error, "
+          "h-error, s-error, g-error, extrapolation-cp-over-r, extrapolation-note, form-limit, "
+          "verdict, failure, input-sha256, tool-version, model, source");
   }
   SECTION("missing and extra values") {
     CHECK(error_of(Edit(good, " 3.75\n", "\n")) ==
@@ -332,47 +390,95 @@ TEST_CASE("malformed entries files are rejected with file:line:column, found and
     CHECK(error_of(Edit(good, "charge 0", "charge 0 0")) ==
           "bad.entries:6:12: found \"0\", expected end of line");
     CHECK(error_of(Edit(good, "low max 0.0012", "low maximum 0.0012")) ==
-          "bad.entries:14:16: found \"maximum\", expected \"max\"");
+          "bad.entries:19:16: found \"maximum\", expected \"max\"");
   }
   SECTION("values out of their domain") {
-    CHECK(error_of(Edit(good, "200 1000 6000", "1000 200 6000")) ==
-          "bad.entries:8:18: found temperatures 1000 200 6000 K, expected 0 < low < mid < high");
+    CHECK(error_of(Edit(good, "low 200 mid 1000", "low 1000 mid 200")) ==
+          "bad.entries:8:22: found temperatures 1000 200 6000 K, expected low < mid < high");
+    CHECK(error_of(Edit(good, "high 6000", "high 1e12")) ==
+          "bad.entries:8:40: found 1e12 (the high temperature), expected a temperature within "
+          "[10, 20000] K (the engine's range)");
     CHECK(error_of(Edit(good, "phase gas", "phase liquid")) ==
           "bad.entries:7:9: found \"liquid\", expected \"gas\" (the only phase of format version "
-          "1)");
+          "2)");
     CHECK(error_of(Edit(good, "composition C 1", "composition c 1")) ==
-          "bad.entries:5:15: found \"c\", expected an element symbol such as C or Cl");
+          "bad.entries:5:15: found \"c\", expected the symbol of a known element such as C or Cl");
+    CHECK(error_of(Edit(good, "composition C 1", "composition Xx 1")) ==
+          "bad.entries:5:15: found \"Xx\", expected the symbol of a known element such as C or "
+          "Cl");
+    CHECK(error_of(Edit(good, "composition C 1 O 1", "composition C 1 C 1")) ==
+          "bad.entries:5:19: found element C a second time, expected each element once");
     CHECK(error_of(Edit(good, "composition C 1", "composition C 0")) ==
-          "bad.entries:5:17: found count 0 of C, expected a positive count");
+          "bad.entries:5:17: found count 0 of C, expected a positive count of at most 1000");
+    CHECK(error_of(Edit(good, "charge 0", "charge 101")) ==
+          "bad.entries:6:10: found charge 101, expected a charge within [-100, 100]");
+    CHECK(error_of(Edit(good, "reference-pressure-pa 100000", "reference-pressure-pa 1e-300")) ==
+          "bad.entries:12:25: found 1e-300 Pa, expected a standard pressure: 100000 (1 bar) or "
+          "101325 (1 atm)");
+    CHECK(error_of(Edit(good, "grid-points low 91", "grid-points low -1")) ==
+          "bad.entries:18:19: found -1 grid points, expected a non-negative count");
+    CHECK(error_of(Edit(good, "factor 1.5", "factor 0.5")) ==
+          "bad.entries:15:30: found factor 0.5 band 0.1, expected 1 < factor <= 4 and 0 < band "
+          "<= 1");
+    CHECK(error_of(Edit(good, "fit-objective least-squares", "fit-objective median")) ==
+          "bad.entries:13:17: found \"median\", expected \"minimax\" or \"least-squares\"");
     CHECK(error_of(Edit(good, "input-sha256 aaaa", "input-sha256 Aaaa")) ==
-          "bad.entries:20:16: found \"Aaaaaaaaaaaaaaaaaaaaaaaaaaaaaaaa77777777777777777777777777777777\", "
+          "bad.entries:26:16: found \"Aaaaaaaaaaaaaaaaaaaaaaaaaaaaaaaa77777777777777777777777777777777\", "
           "expected 64 lowercase hexadecimal digits");
+    CHECK(error_of(Edit(good, "form-limit not-evaluated",
+                        "form-limit reachable best-threshold-ratio 1.5 widest-passing-range-k none")) ==
+          "bad.entries:24:45: found best-threshold-ratio 1.5 with \"reachable\", expected "
+          "\"at-limit\" exactly when the ratio exceeds 1");
+  }
+  SECTION("curves that are not finite or disagree with the formation enthalpy") {
+    CHECK(error_of(Edit(good, "6.1e-11", "1e300")) ==
+          "bad.entries:10:1: found coefficients of species \"CO\" whose Cp, H or S is not finite "
+          "at 1000 K, expected finite values across the range");
+    CHECK_THAT(error_of(Edit(good, "276.0622659828193", "-110530")),
+               Catch::StartsWith("bad.entries:11:1: found formation enthalpy -110530 J/mol in "
+                                 "species \"CO\" but H(298.15 K) = 276.06226598"));
   }
   SECTION("verdict disagrees with the failure lines") {
     CHECK(error_of(Edit(good, "verdict pass", "verdict fail")) ==
-          "bad.entries:19:3: found verdict \"fail\" in species \"CO\" without any \"failure\" "
+          "bad.entries:25:3: found verdict \"fail\" in species \"CO\" without any \"failure\" "
           "line, expected at least one");
-    CHECK(error_of(Edit(good, "  verdict pass\n", "  verdict pass\n  failure \"x\"\n")) ==
-          "bad.entries:20:3: found a \"failure\" line in species \"CO\" whose verdict is "
+    CHECK(error_of(Edit(Edit(good, "  verdict pass\n", "  verdict pass\n  failure \"x\"\n"),
+                        "field-lines 25", "field-lines 26")) ==
+          "bad.entries:26:3: found a \"failure\" line in species \"CO\" whose verdict is "
           "\"pass\", expected none");
   }
   SECTION("broken strings and text") {
     CHECK(error_of(Edit(good, "\"0.1.0\"", "\"0.1.0")) ==
-          "bad.entries:21:22: found end of line inside a quoted string, expected a closing \"");
+          "bad.entries:27:22: found end of line inside a quoted string, expected a closing \"");
     CHECK(error_of(Edit(good, "\"0.1.0\"", "\"0.\\q\"")) ==
-          "bad.entries:21:19: found the escape \"\\q\", expected one of \\\\ \\\" \\n \\t \\r "
+          "bad.entries:27:19: found the escape \"\\q\", expected one of \\\\ \\\" \\n \\t \\r "
           "\\xHH");
     CHECK(error_of(Edit(good, "\"0.1.0\"", "0.1.0")) ==
-          "bad.entries:21:16: found \"0.1.0\", expected the tool version in double quotes");
+          "bad.entries:27:16: found \"0.1.0\", expected the tool version in double quotes");
     CHECK(error_of(Edit(good, "species/co.yaml", "species/\xff.yaml")) ==
-          "bad.entries:23:19: found the byte 0xff, which does not start valid UTF-8, expected "
+          "bad.entries:29:19: found the byte 0xff, which is not valid UTF-8, expected UTF-8 text");
+    // A surrogate (ED A0 80) and an overlong form (E0 80 AF), refused as the species reader
+    // refuses them (Unicode Standard, table 3-7), and a noncharacter (U+FFFF, EF BF BF).
+    CHECK(error_of(Edit(good, "species/co.yaml", "species/\xed\xa0\x80.yaml")) ==
+          "bad.entries:29:19: found the byte 0xed, which is not valid UTF-8, expected UTF-8 text");
+    CHECK(error_of(Edit(good, "species/co.yaml", "species/\xe0\x80\xaf.yaml")) ==
+          "bad.entries:29:19: found the byte 0xe0, which is not valid UTF-8, expected UTF-8 text");
+    CHECK(error_of(Edit(good, "species/co.yaml", "species/\xef\xbf\xbf.yaml")) ==
+          "bad.entries:29:19: found the byte 0xef, which starts a Unicode noncharacter, expected "
           "UTF-8 text");
-    CHECK(error_of(Edit(good, "species \"CO\"", "species CO")) ==
-          "bad.entries:4:9: found \"CO\", expected the species name in double quotes");
+    CHECK(error_of(Edit(good, "\"CO\" record", "CO record")) ==
+          "bad.entries:4:1: found \"CO\" at the left margin, expected a record header \"NAME\" "
+          "record-version 2 field-lines N (field lines are indented)");
   }
-  SECTION("text outside a block") {
-    CHECK(error_of(good + "charge 0\n") ==
-          "bad.entries:25:1: found \"charge\", expected \"species\" to open a block");
+  SECTION("text outside a record") {
+    CHECK(error_of(Edit(good, "\n\"CO\"", "\n  charge 0\n\"CO\"")) ==
+          "bad.entries:4:3: found the indented line \"charge\" outside any record, expected a "
+          "record header at the left margin (\"NAME\" record-version 2 field-lines N)");
+  }
+  SECTION("a text above the size cap") {
+    CHECK_THAT(error_of(good + std::string(kMaxInputFileBytes, '#')),
+               Catch::EndsWith("found a text larger than 16 MiB, refused before parsing; "
+                               "expected at most 16 MiB"));
   }
 }
 
@@ -391,7 +497,8 @@ TEST_CASE("entries files are written atomically and read back", "[entries]") {
   CHECK(FormatEntries(read) == kSampleText);
 
   CHECK_THROWS_WITH(ReadEntriesFile(folder + "/missing.entries"),
-                    folder + "/missing.entries: cannot open: No such file or directory");
+                    folder + "/missing.entries: cannot open entries file: No such file or "
+                             "directory; expected a readable file");
   CHECK_THROWS_WITH(WriteFileAtomically(folder + "/no/such/folder/x.entries", "x"),
                     folder + "/no/such/folder/x.entries: cannot create a temporary file beside "
                              "it: No such file or directory");
@@ -425,6 +532,17 @@ TEST_CASE("entries that cannot be read back are refused by the writer", "[entrie
   file.entries.push_back(file.entries[0]);
   CHECK_THROWS_WITH(FormatEntries(file),
                     "cannot write entry \"CO\": the species appears twice");
+  // Whatever the reader would refuse, the writer refuses: here a formation enthalpy that
+  // H(298.15 K) of the coefficients contradicts, and a charge beyond the bounds.
+  file = SampleFile();
+  file.entries[0].formation_enthalpy_j_per_mol += 1000.0;
+  CHECK_THROWS_WITH(FormatEntries(file),
+                    Catch::StartsWith("cannot write the entries: the reader would refuse them: "
+                                      "the written text:11:1: found formation enthalpy"));
+  file = SampleFile();
+  file.entries[0].charge = 1000;
+  CHECK_THROWS_WITH(FormatEntries(file),
+                    Catch::Contains("found charge 1000, expected a charge within [-100, 100]"));
 }
 
 }  // namespace sevenfold

@@ -265,16 +265,17 @@ std::vector<std::string> Blocks(const std::string& text) {
   std::vector<std::string> blocks;
   std::istringstream lines(text);
   std::string line, block;
-  bool inside = false;
+  // A record is its header line (at the left margin, starting with the quoted name) and the
+  // indented field lines below it (docs/entries-format.md).
   while (std::getline(lines, line)) {
-    if (line.rfind("species ", 0) == 0) inside = true;
-    if (inside) block += line + "\n";
-    if (inside && line == "end") {
-      blocks.push_back(block);
-      block.clear();
-      inside = false;
+    if (line.rfind("\"", 0) == 0) {
+      if (!block.empty()) blocks.push_back(block);
+      block = line + "\n";
+    } else if (!block.empty() && line.rfind("  ", 0) == 0) {
+      block += line + "\n";
     }
   }
+  if (!block.empty()) blocks.push_back(block);
   return blocks;
 }
 

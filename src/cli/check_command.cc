@@ -44,6 +44,7 @@ int RunCheckCommand(const CheckCommandOptions& options) {
   RegenerateOptions regenerate = MakeRegenerateOptions(options.mid, options.objective, options.extrapolation_guard,
                             options.num_jobs);
   regenerate.continuous_second_derivative = options.continuous_second_derivative;
+  RecordCommittedSettings(committed, &regenerate);
   ProgressBar progress("check", options.quiet);
   regenerate.progress = progress.Callback();
   const std::vector<SpeciesFit> results = FitAllSpecies(species, regenerate);

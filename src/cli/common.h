@@ -13,22 +13,44 @@
 
 namespace sevenfold::cli {
 
+// The positions in `available` of the names in `requested`, in the order requested (repeats
+// kept once); all positions in order when `requested` is empty. `what` names the source in
+// messages ("the given species files", "ENTRIES"). Throws Error for a name not in `available`,
+// listing the close matches (same letters but for case, or at most two edits away).
+std::vector<std::size_t> SelectByName(const std::vector<std::string>& available,
+                                      const std::vector<std::string>& requested,
+                                      const std::string& what);
+
 // Reads the species files (on num_jobs threads: 0 means the machine's hardware threads) and keeps
-// those named in `names` (all when empty), in file order. Throws Error for a name that no file
-// defines.
+// those named in `names` in that order (all, in file order, when empty); see SelectByName.
 std::vector<Species> LoadSpecies(const std::vector<std::string>& files,
                                  const std::vector<std::string>& names, int num_jobs = 1);
 
-// Temperature selection shared by `table` and `eval`: --at, or --from/--to/--step, or nothing
-// (then the default grid of each species).
-struct TemperatureChoice {
-  std::vector<double> at_k;
-  double from_k = 0.0;
-  double to_k = 0.0;
-  double step_k = 0.0;  // > 0 when --from/--to/--step were given
+// A number given on the command line: a plain decimal literal (std::from_chars: no leading
+// space or "+", no hexadecimal, no "nan"/"inf"), finite. Throws Error "OPTION TEXT: expected
+// EXPECTED" otherwise.
+double ParseNumberOption(const std::string& option, const std::string& text,
+                         const std::string& expected);
 
-  // The temperatures to use for a species whose range is [low_k, high_k].
+// Temperature selection shared by `table` and `eval`: --at, or --from/--to/--step, or nothing
+// (then the default grid of each species). The option texts are kept as given and checked by
+// Resolve, so that every bad value gets the same "error:" message and exit 2.
+struct TemperatureChoice {
+  std::vector<std::string> at_text;
+  std::string from_text, to_text, step_text;
+
+  // Which temperatures a command accepts: the exact engine's range (table), or any T > 0 at
+  // which a polynomial can be evaluated (eval).
+  enum class Limit { kEngineRange, kPositive };
+  // Parses and checks the texts. Throws Error naming the option, the value and the rule.
+  void Resolve(Limit limit);
+
+  // The temperatures to use for a species whose range is [low_k, high_k] (after Resolve).
   std::vector<double> For(double low_k, double high_k) const;
+
+ private:
+  std::vector<double> at_k_;
+  double from_k_ = 0.0, to_k_ = 0.0, step_k_ = 0.0;  // step_k_ > 0 when --from/--to/--step given
 };
 
 // Adds --at / --from / --to / --step bound to `choice`, and --format bound to `format`.

@@ -29,9 +29,11 @@ int main(int argc, char** argv) {
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
-    // Usage errors are bad input too: exit 2 like every other input error (help/version exit 0).
-    const int status = app.exit(e);
-    return status == 0 ? 0 : 2;
+    // Usage errors are bad input too: exit 2 with the same "error:" prefix as every other input
+    // error (help and version exit 0).
+    if (e.get_exit_code() == 0) return app.exit(e);
+    std::cerr << "error: " << e.what() << "\n(run with --help or --help-all for the options)\n";
+    return 2;
   } catch (const sevenfold::Error& e) {
     std::cerr << "error: " << e.what() << "\n";
     return 2;

@@ -23,14 +23,16 @@ void SetupTableCommand(CLI::App& app, int& exit_status) {
 }
 
 int RunTableCommand(const TableOptions& options) {
+  TemperatureChoice choice = options.temperatures;
+  choice.Resolve(TemperatureChoice::Limit::kEngineRange);
   const std::vector<Species> species = LoadSpecies(options.species_files, options.species_names);
   std::vector<TableRow> rows;
   for (const Species& one : species) {
     const SpeciesThermo thermo(one);
     const std::vector<double> temperatures =
-        options.temperatures.For(one.temperatures.low_k, one.temperatures.high_k);
+        choice.For(one.temperatures.low_k, one.temperatures.high_k);
     for (const ThermoPoint& point : thermo.Tabulate(temperatures)) {
-      rows.push_back({one.name, one.standard_pressure_pa, point});
+      rows.push_back({one.name, one.standard_pressure_pa, point, std::nullopt});
     }
   }
   std::cout << FormatTable(rows, options.format);

@@ -113,6 +113,17 @@ std::optional<double> ParsePlainNumber(const std::string& text) {
   return value;
 }
 
+std::optional<double> ParseStrictDecimal(const std::string& text) {
+  double value = 0.0;
+  const char* begin = text.data();
+  const char* end = begin + text.size();
+  const auto [stop, error] = std::from_chars(begin, end, value);
+  if (text.empty() || error != std::errc() || stop != end || !std::isfinite(value)) {
+    return std::nullopt;
+  }
+  return value;
+}
+
 std::optional<double> TryParseEnergyJPerMol(const std::string& text, std::string* problem) {
   return ParseQuantity(text, EnergyUnits(), "kJ/mol", "molar energy", problem);
 }

@@ -26,5 +26,8 @@ std::optional<double> TryParsePressurePa(const std::string& text, std::string* p
 
 // A plain decimal number (C locale, no unit). nullopt when malformed, trailing text or not finite.
 std::optional<double> ParsePlainNumber(const std::string& text);
+// The same without any tolerance, for command-line values: no surrounding spaces, no sign '+',
+// no hexadecimal; the whole text is one finite decimal number (" 1000" and "0x3e8" give nullopt).
+std::optional<double> ParseStrictDecimal(const std::string& text);
 
 }  // namespace sevenfold

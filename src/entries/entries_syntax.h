@@ -7,7 +7,11 @@
 
 namespace sevenfold::detail {
 
-// Field keywords in the order the writer emits them.
+// The record header: `"NAME" record-version 2 field-lines N` at the left margin.
+inline constexpr const char* kRecordVersionWord = "record-version";
+inline constexpr const char* kFieldLinesWord = "field-lines";
+
+// Field keywords in the order the writer emits them; field lines are indented.
 inline constexpr const char* kFieldComposition = "composition";
 inline constexpr const char* kFieldCharge = "charge";
 inline constexpr const char* kFieldPhase = "phase";
@@ -16,13 +20,19 @@ inline constexpr const char* kFieldCoefficientsLow = "coefficients-low";
 inline constexpr const char* kFieldCoefficientsHigh = "coefficients-high";
 inline constexpr const char* kFieldFormationEnthalpy = "formation-enthalpy-j-per-mol";
 inline constexpr const char* kFieldReferencePressure = "reference-pressure-pa";
+inline constexpr const char* kFieldFitObjective = "fit-objective";
+inline constexpr const char* kFieldErrorScales = "fit-error-scales";
+inline constexpr const char* kFieldExtrapolationGuard = "extrapolation-guard";
+inline constexpr const char* kFieldTMidChoice = "t-mid-choice";
+inline constexpr const char* kFieldCurvature = "cp-curvature-at-mid";
 inline constexpr const char* kFieldGridPoints = "grid-points";
 inline constexpr const char* kFieldCpError = "cp-error";
 inline constexpr const char* kFieldHError = "h-error";
 inline constexpr const char* kFieldSError = "s-error";
 inline constexpr const char* kFieldGError = "g-error";
-inline constexpr const char* kFieldExtrapolation = "extrapolation";
+inline constexpr const char* kFieldExtrapolation = "extrapolation-cp-over-r";
 inline constexpr const char* kFieldExtrapolationNote = "extrapolation-note";  // optional
+inline constexpr const char* kFieldFormLimit = "form-limit";
 inline constexpr const char* kFieldVerdict = "verdict";
 inline constexpr const char* kFieldFailure = "failure";  // repeated, one per failure
 inline constexpr const char* kFieldInputSha256 = "input-sha256";
@@ -30,13 +40,25 @@ inline constexpr const char* kFieldToolVersion = "tool-version";
 inline constexpr const char* kFieldModel = "model";
 inline constexpr const char* kFieldSource = "source";
 
-inline constexpr const char* kBlockStart = "species";
-inline constexpr const char* kBlockEnd = "end";
 inline constexpr const char* kPhaseGas = "gas";
 inline constexpr const char* kVerdictPass = "pass";
 inline constexpr const char* kVerdictFail = "fail";
 inline constexpr const char* kExtrapolationSane = "sane";
 inline constexpr const char* kExtrapolationOutside = "outside-band";
+inline constexpr const char* kGuardOff = "off";
+inline constexpr const char* kTMidFixed = "fixed";
+inline constexpr const char* kTMidAuto = "auto";
+inline constexpr const char* kCurvatureContinuous = "continuous";
+inline constexpr const char* kCurvatureFree = "free";
+inline constexpr const char* kFormLimitNotEvaluated = "not-evaluated";
+inline constexpr const char* kFormLimitAtLimit = "at-limit";
+inline constexpr const char* kFormLimitReachable = "reachable";
+inline constexpr const char* kNone = "none";
+
+// The words of version 1's record layout, recognised only to refuse them with a message that
+// names the change.
+inline constexpr const char* kVersion1BlockStart = "species";
+inline constexpr const char* kVersion1BlockEnd = "end";
 
 // True for an element symbol as the format accepts it: an ASCII capital followed by up to two
 // ASCII lowercase letters ("C", "Cl", "D").

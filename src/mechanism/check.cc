@@ -24,6 +24,7 @@ std::string ToString(FindingKind kind) {
     case FindingKind::kDataChanged: return "data-changed";
     case FindingKind::kRangeChanged: return "range-changed";
     case FindingKind::kCurveChanged: return "curve-changed";
+    case FindingKind::kQualityChanged: return "quality-changed";
     case FindingKind::kFitFails: return "fit-fails";
   }
   SEVENFOLD_ASSERT(false);
@@ -72,8 +73,12 @@ std::optional<CurveDifference> DifferenceOver(const Entry& committed, const Entr
   return CompareCurves(committed.polynomial, regenerated.polynomial, low_k, high_k);
 }
 
-// "Cp 1.2e-05 relative at 215 K, H 3e-06 RT at 1000 K, S 2e-06 R at 1000 K".
+// "Cp 1.2e-05 relative at 215 K, H 3e-06 RT at 1000 K, S 2e-06 R at 1000 K", or "none" when
+// the curves are identical at every sample.
 std::string DescribeDifference(const CurveDifference& d) {
+  if (d.max_cp_relative == 0.0 && d.max_h_over_rt == 0.0 && d.max_s_over_r == 0.0) {
+    return "nothing (identical at every sample)";
+  }
   return fmt::format("Cp {:.2g} relative at {:.5g} K, H {:.2g} RT at {:.5g} K, S {:.2g} R at {:.5g} K",
                      d.max_cp_relative, d.max_cp_t_k, d.max_h_over_rt, d.max_h_t_k,
                      d.max_s_over_r, d.max_s_t_k);
@@ -151,6 +156,177 @@ std::optional<std::string> FitFailure(const Entry* committed, const SpeciesFit& 
   return std::nullopt;
 }
 
+std::string GuardText(const ExtrapolationGuard& guard) {
+  return guard.enabled ? fmt::format("factor {} band {}", guard.factor, guard.band) : "off";
+}
+
+std::string ScalesText(const ErrorScales& scales) {
+  return fmt::format("cp {} h {} s {}", scales.cp_relative, scales.h_over_rt, scales.s_over_r);
+}
+
+std::string MidText(const Entry& entry) {
+  return entry.fit_settings.t_mid_fixed
+             ? fmt::format("fixed at {} K", entry.polynomial.t_mid_k)
+             : std::string("auto");
+}
+
+// The fit settings of the committed entry that differ from those of this run, each naming the
+// option, both values, who asked for this run's value and what to do.
+std::vector<std::string> SettingDifferences(const Entry& committed, const Entry& regenerated,
+                                            const Species& species,
+                                            const RegenerateOptions& regenerate) {
+  std::vector<std::string> differences;
+  const FitRequest& request = species.fit_request;
+  // `option` is the command-line option that asked for this run's value, or nullptr when the
+  // species file (file_says) or, failing both, the built-in default did.
+  const auto add = [&](const char* field, const std::string& recorded, const std::string& now,
+                       const char* option, bool file_says) {
+    std::string who, what_to_do;
+    if (option != nullptr) {
+      who = fmt::format("requested by {}", option);
+      what_to_do = fmt::format(
+          "drop {} to check the entry as it was made, or run fit with it to remake the entry",
+          option);
+    } else if (file_says) {
+      who = "asked for by the species file";
+      what_to_do = "run fit to remake the entry with the species file's setting";
+    } else {
+      who = "by default (the entry's own setting was not consulted)";
+      what_to_do = "check with the settings the entry records (sevenfold check does)";
+    }
+    differences.push_back(fmt::format("{}: {} in the entry, {} {}; {}", field, recorded, now, who,
+                                      what_to_do));
+  };
+  const EntryFitSettings& c = committed.fit_settings;
+  const EntryFitSettings& r = regenerated.fit_settings;
+  if (c.objective != r.objective) {
+    add("fit-objective", ToString(c.objective), ToString(r.objective),
+        regenerate.objective_override ? "--objective" : nullptr, request.objective.has_value());
+  }
+  if (!(c.extrapolation_guard.enabled == r.extrapolation_guard.enabled &&
+        (!c.extrapolation_guard.enabled ||
+         (c.extrapolation_guard.factor == r.extrapolation_guard.factor &&
+          c.extrapolation_guard.band == r.extrapolation_guard.band)))) {
+    add("extrapolation-guard", GuardText(c.extrapolation_guard), GuardText(r.extrapolation_guard),
+        regenerate.extrapolation_guard_override ? "--extrapolation-guard" : nullptr,
+        request.extrapolation_guard.has_value());
+  }
+  if (!(c.error_scales.cp_relative == r.error_scales.cp_relative &&
+        c.error_scales.h_over_rt == r.error_scales.h_over_rt &&
+        c.error_scales.s_over_r == r.error_scales.s_over_r)) {
+    add("fit-error-scales", ScalesText(c.error_scales), ScalesText(r.error_scales),
+        regenerate.error_scales_override ? "the error-scales override" : nullptr,
+        request.error_scales.has_value());
+  }
+  const bool mid_differs =
+      c.t_mid_fixed != r.t_mid_fixed ||
+      (c.t_mid_fixed && !NearlyEqual(committed.polynomial.t_mid_k, regenerated.polynomial.t_mid_k));
+  if (mid_differs) {
+    add("t-mid-choice", MidText(committed), MidText(regenerated),
+        regenerate.t_mid_override_k || regenerate.force_auto_mid ? "--mid" : nullptr,
+        request.mid_given);
+  }
+  if (c.continuous_second_derivative != r.continuous_second_derivative) {
+    add("cp-curvature-at-mid", c.continuous_second_derivative ? "continuous" : "free",
+        r.continuous_second_derivative ? "continuous" : "free",
+        regenerate.continuous_second_derivative ? "--smooth-curvature" : nullptr, false);
+  }
+  if (committed.provenance.model_options != regenerated.provenance.model_options) {
+    differences.push_back(fmt::format(
+        "model: \"{}\" in the entry, \"{}\" in this run (a sevenfold version that models the "
+        "species differently); run fit to remake the entry",
+        committed.provenance.model_options, regenerated.provenance.model_options));
+  }
+  return differences;
+}
+
+bool Near(double a, double b, double absolute) { return std::abs(a - b) <= absolute; }
+bool NearRelative(double a, double b) {
+  return std::abs(a - b) <= kQualityRelativeTolerance * std::max(std::abs(a), std::abs(b));
+}
+
+// The recorded quality of the committed entry that differs from the regenerated quality.
+std::vector<std::string> QualityDifferences(const FitQuality& c, const FitQuality& r) {
+  std::vector<std::string> differences;
+  const auto figure = [&](const char* what, double committed, double regenerated) {
+    if (!Near(committed, regenerated, kQualityFigureTolerance)) {
+      differences.push_back(
+          fmt::format("{} {} in the entry, {} regenerated", what, committed, regenerated));
+    }
+  };
+  const std::pair<const char*, const RangeQuality*> ranges[] = {{"low", &c.low_range},
+                                                                  {"high", &c.high_range}};
+  for (const auto& [name, committed] : ranges) {
+    const RangeQuality& regenerated = name[0] == 'l' ? r.low_range : r.high_range;
+    if (committed->num_points != regenerated.num_points) {
+      differences.push_back(fmt::format("grid-points {} {} in the entry, {} regenerated", name,
+                                        committed->num_points, regenerated.num_points));
+    }
+    const std::string n = name;
+    figure(("cp-error " + n + " max").c_str(), committed->max_cp_relative, regenerated.max_cp_relative);
+    figure(("cp-error " + n + " rms").c_str(), committed->rms_cp_relative, regenerated.rms_cp_relative);
+    figure(("h-error " + n + " max").c_str(), committed->max_h_over_rt, regenerated.max_h_over_rt);
+    figure(("h-error " + n + " rms").c_str(), committed->rms_h_over_rt, regenerated.rms_h_over_rt);
+    figure(("s-error " + n + " max").c_str(), committed->max_s_over_r, regenerated.max_s_over_r);
+    figure(("s-error " + n + " rms").c_str(), committed->rms_s_over_r, regenerated.rms_s_over_r);
+    figure(("g-error " + n + " max").c_str(), committed->max_g_over_rt, regenerated.max_g_over_rt);
+    figure(("g-error " + n + " rms").c_str(), committed->rms_g_over_rt, regenerated.rms_g_over_rt);
+  }
+  const ExtrapolationCheck& cx = c.extrapolation;
+  const ExtrapolationCheck& rx = r.extrapolation;
+  if (cx.sane != rx.sane) {
+    differences.push_back(fmt::format("extrapolation {} in the entry, {} regenerated",
+                                      cx.sane ? "sane" : "outside-band",
+                                      rx.sane ? "sane" : "outside-band"));
+  }
+  if (!(NearRelative(cx.min_cp_over_r_below, rx.min_cp_over_r_below) &&
+        NearRelative(cx.max_cp_over_r_below, rx.max_cp_over_r_below) &&
+        NearRelative(cx.min_cp_over_r_above, rx.min_cp_over_r_above) &&
+        NearRelative(cx.max_cp_over_r_above, rx.max_cp_over_r_above))) {
+    differences.push_back(fmt::format(
+        "extrapolation Cp/R below {}..{} above {}..{} in the entry, below {}..{} above {}..{} "
+        "regenerated",
+        cx.min_cp_over_r_below, cx.max_cp_over_r_below, cx.min_cp_over_r_above,
+        cx.max_cp_over_r_above, rx.min_cp_over_r_below, rx.max_cp_over_r_below,
+        rx.min_cp_over_r_above, rx.max_cp_over_r_above));
+  }
+  if (cx.message != rx.message) {
+    differences.push_back(fmt::format("extrapolation-note \"{}\" in the entry, \"{}\" regenerated",
+                                      cx.message, rx.message));
+  }
+  const FormLimit& cl = c.form_limit;
+  const FormLimit& rl = r.form_limit;
+  const auto limit_text = [](const FormLimit& limit) {
+    if (!limit.computed) return std::string("not-evaluated");
+    return fmt::format("best-threshold-ratio {} widest-passing-range-k {}",
+                       limit.best_threshold_ratio,
+                       limit.passing_range_found
+                           ? fmt::format("{} to {}", limit.passing_t_low_k, limit.passing_t_high_k)
+                           : std::string("none"));
+  };
+  const bool limits_agree =
+      cl.computed == rl.computed &&
+      (!cl.computed ||
+       (NearRelative(cl.best_threshold_ratio, rl.best_threshold_ratio) &&
+        cl.passing_range_found == rl.passing_range_found &&
+        (!cl.passing_range_found || (NearRelative(cl.passing_t_low_k, rl.passing_t_low_k) &&
+                                     NearRelative(cl.passing_t_high_k, rl.passing_t_high_k)))));
+  if (!limits_agree) {
+    differences.push_back(fmt::format("form-limit {} in the entry, {} regenerated", limit_text(cl),
+                                      limit_text(rl)));
+  }
+  if (c.MeetsThresholds() != r.MeetsThresholds()) {
+    differences.push_back(fmt::format("verdict {} in the entry, {} regenerated",
+                                      c.MeetsThresholds() ? "pass" : "fail",
+                                      r.MeetsThresholds() ? "pass" : "fail"));
+  } else if (c.threshold_failures != r.threshold_failures) {
+    differences.push_back(fmt::format("failure lines \"{}\" in the entry, \"{}\" regenerated",
+                                      JoinLines(c.threshold_failures),
+                                      JoinLines(r.threshold_failures)));
+  }
+  return differences;
+}
+
 void CheckOneEntry(const Entry& committed, const SpeciesFit& fit,
                    const RegenerateOptions& regenerate, const CheckOptions& options,
                    std::vector<Finding>* findings) {
@@ -161,9 +337,28 @@ void CheckOneEntry(const Entry& committed, const SpeciesFit& fit,
   };
   const std::optional<CurveDifference> difference = DifferenceOver(committed, regenerated);
   const std::string consequence =
-      difference ? "; regenerated curves differ by up to " + DescribeDifference(*difference) : "";
+      difference ? "; regenerated curves differ by " + DescribeDifference(*difference) : "";
+  const TwoRangePolynomial& c = committed.polynomial;
+  const TwoRangePolynomial& r = regenerated.polynomial;
+  const std::vector<std::string> settings =
+      SettingDifferences(committed, regenerated, species, regenerate);
+  const std::vector<std::string> data = DataDifferences(committed, regenerated);
+  const bool same_curves =
+      difference && SameRange(c, r) && DescribeExcess(*difference, options.tolerances).empty();
+  const std::vector<std::string> quality =
+      same_curves ? QualityDifferences(committed.quality, regenerated.quality)
+                  : std::vector<std::string>{};
 
   if (committed.provenance.input_sha256 != species.input_digest) {
+    if (same_curves && settings.empty() && data.empty() && quality.empty()) {
+      add(FindingKind::kStale,
+          fmt::format("input text changed, physics unchanged (input-sha256 {}... in the entry, "
+                      "{}... now; the regenerated entry matches the committed one in every "
+                      "compared field); run fit to record the new input-sha256",
+                      ShortDigest(committed.provenance.input_sha256),
+                      ShortDigest(species.input_digest)));
+      return;
+    }
     add(FindingKind::kStale,
         fmt::format("input changed since the entry was written (input-sha256 {}... in the entry, "
                     "{}... now); run fit again{}",
@@ -171,18 +366,14 @@ void CheckOneEntry(const Entry& committed, const SpeciesFit& fit,
                     ShortDigest(species.input_digest), consequence));
     return;
   }
-  if (committed.provenance.model_options != regenerated.provenance.model_options) {
+  if (!settings.empty()) {
     add(FindingKind::kModelChanged,
-        fmt::format("model options differ: \"{}\" in the entry, \"{}\" in this run{}",
-                    committed.provenance.model_options, regenerated.provenance.model_options,
+        fmt::format("entry made differently from this run: {}{}", JoinLines(settings),
                     consequence));
   }
-  const std::vector<std::string> data = DataDifferences(committed, regenerated);
   if (!data.empty()) add(FindingKind::kDataChanged, JoinLines(data));
-  if (committed.provenance.model_options != regenerated.provenance.model_options) return;
+  if (!settings.empty()) return;
 
-  const TwoRangePolynomial& c = committed.polynomial;
-  const TwoRangePolynomial& r = regenerated.polynomial;
   if (!SameRange(c, r)) {
     add(FindingKind::kRangeChanged,
         fmt::format("temperatures {} {} {} K in the entry, {} {} {} K regenerated", c.t_low_k,
@@ -194,6 +385,11 @@ void CheckOneEntry(const Entry& committed, const SpeciesFit& fit,
   } else if (const std::string excess = DescribeExcess(*difference, options.tolerances);
              !excess.empty()) {
     add(FindingKind::kCurveChanged, excess);
+  }
+  if (!quality.empty()) {
+    add(FindingKind::kQualityChanged,
+        "recorded quality differs from the regenerated fit's (a hand edit?): " +
+            JoinLines(quality) + "; run fit to rewrite the entry");
   }
 }
 

@@ -21,14 +21,16 @@ enum class FindingKind {
   kMissing,        // a species of the species files has no entry
   kExtra,          // an entry names no species of the species files
   kStale,          // the species' input changed since its entry was written (input-sha256)
-  kModelChanged,   // same input, but the entry's model/fit options differ from this run's
+  kModelChanged,   // same input, but the entry's model or fit settings differ from this run's
   kDataChanged,    // composition, charge, phase, formation enthalpy or reference pressure differ
   kRangeChanged,   // temperatures-k (low, mid, high) differ
   kCurveChanged,   // Cp, H or S of the polynomials differ beyond CurveTolerances
+  kQualityChanged, // same curves, but the recorded quality figures, extrapolation check, form
+                   // limit, grid counts, verdict or failure lines differ from the regenerated
   kFitFails,       // the committed verdict is "fail", or the regenerated fit misses a threshold
 };
 // "missing", "extra", "stale", "model-changed", "data-changed", "range-changed",
-// "curve-changed", "fit-fails".
+// "curve-changed", "quality-changed", "fit-fails".
 std::string ToString(FindingKind kind);
 
 struct Finding {
@@ -53,6 +55,16 @@ struct CurveTolerances {
   double max_h_over_rt = 1e-6;    // max |H_committed - H_regenerated| / (R T)
   double max_s_over_r = 1e-6;     // max |S_committed - S_regenerated| / R
 };
+
+// How far recorded quality figures may lie from the regenerated ones (absolute, in the figures'
+// own dimensionless units: |dCp|/Cp, |dH|/RT, |dS|/R, |dG|/RT). Two polynomials whose curves agree
+// within CurveTolerances (1e-6) have error figures that agree within 1e-6 for Cp, H and S and
+// 2e-6 for G = H - T S; a regeneration of the same fit agrees to rounding (about 1e-12).
+inline constexpr double kQualityFigureTolerance = 2e-6;
+// The same, relative, for the extrapolation's Cp/R extremes, the form limit's best threshold
+// ratio and its passing range: numbers computed from the same polynomial or search agree to
+// rounding; 1e-6 is the curve tolerance.
+inline constexpr double kQualityRelativeTolerance = 1e-6;
 
 // Temperatures (low, mid, high) that differ by more than this relative amount are a range
 // change. The entries format reads numbers back bit for bit, so equal ranges compare equal;
@@ -100,9 +112,20 @@ struct CheckResult {
 // FitAllSpecies(species, regenerate) returned (same order as `species`); `regenerate` must be the
 // options of that run (they define the expected model description).
 //
-// A stale entry or one with changed model options is reported as such alone: range and curve
-// differences are then its consequences, and the message states the largest curve difference.
-// kFitFails is reported independently of the other kinds.
+// Every field of the committed entry is compared with the regenerated entry (docs/cli.md,
+// "check", lists each field and its tolerance), except tool-version (it changes with every
+// release; a release that changes results shows in the other fields), source (the path as the
+// tool was given it, which depends on the working directory; input-sha256 identifies the
+// content) and the at-k temperatures of the error maxima (when two grid points carry nearly the
+// same error, rounding moves the maximum from one to the other; the maxima themselves are
+// compared).
+//
+// A stale entry or one with changed model or settings is reported as such alone: range, curve
+// and quality differences are then its consequences, and the message states the largest curve
+// difference. A stale entry whose regeneration matches it in every compared field is reported
+// as "input text changed, physics unchanged". kFitFails is reported independently of the other
+// kinds. For `regenerate` to make each entry the way it was made, fill regenerate.recorded with
+// RecordCommittedSettings(committed, ...) before FitAllSpecies.
 CheckResult CheckEntries(const std::vector<SpeciesFit>& regenerated, const EntriesFile& committed,
                          const RegenerateOptions& regenerate, const CheckOptions& options = {});
 

@@ -38,32 +38,56 @@ RegenerateOptions ParseRegenerateOptions(const std::string& mid, const std::stri
     options.force_auto_mid = true;
   } else if (!mid.empty()) {
     // A plain decimal and nothing else: no spaces, no hexadecimal (" 1000" and "0x3e8" refused).
-    const std::optional<double> value =
-        mid.find_first_of(" \t\r\n") == std::string::npos ? ParsePlainNumber(mid) : std::nullopt;
+    const std::optional<double> value = ParseStrictDecimal(mid);
     if (!value || !(*value >= constants::kMinTemperatureK && *value <= constants::kMaxTemperatureK)) {
-      throw Error(fmt::format("--mid {}: expected 'auto' or a temperature in K within [{}, {}]",
-                              mid, constants::kMinTemperatureK, constants::kMaxTemperatureK));
+      throw Error(fmt::format(
+          "--mid '{}': expected 'auto' or a temperature in K, a decimal number within [{}, {}]",
+          mid, constants::kMinTemperatureK, constants::kMaxTemperatureK));
     }
     options.t_mid_override_k = *value;
   }
   return options;
 }
 
+void RecordCommittedSettings(const EntriesFile& committed, RegenerateOptions* options) {
+  for (const Entry& entry : committed.entries) {
+    options->recorded[entry.name] = RecordedFit{entry.fit_settings, entry.polynomial.t_mid_k};
+  }
+}
+
 FitOptions FitOptionsFor(const Species& species, const RegenerateOptions& options) {
   FitOptions fit_options;
+  const FitRequest& request = species.fit_request;
+  const auto found = options.recorded.find(species.name);
+  const RecordedFit* recorded = found == options.recorded.end() ? nullptr : &found->second;
   if (options.t_mid_override_k) {
     fit_options.t_mid_k = options.t_mid_override_k;
-  } else if (!options.force_auto_mid) {
+  } else if (options.force_auto_mid) {
+    fit_options.t_mid_k.reset();
+  } else if (!request.mid_given && recorded != nullptr) {
+    if (recorded->settings.t_mid_fixed) fit_options.t_mid_k = recorded->t_mid_k;
+  } else {
     fit_options.t_mid_k = species.temperatures.mid_k;
   }
-  fit_options.continuous_second_derivative = options.continuous_second_derivative;
-  const FitRequest& request = species.fit_request;
-  fit_options.objective = options.objective_override.value_or(
-      request.objective.value_or(fit_options.objective));
-  fit_options.extrapolation_guard = options.extrapolation_guard_override.value_or(
-      request.extrapolation_guard.value_or(fit_options.extrapolation_guard));
-  fit_options.error_scales = options.error_scales_override.value_or(
-      request.error_scales.value_or(fit_options.error_scales));
+  fit_options.continuous_second_derivative =
+      options.continuous_second_derivative ||
+      (recorded != nullptr && recorded->settings.continuous_second_derivative);
+  const auto pick = [&](const auto& override_value, const auto& file_value, const auto* record,
+                        const auto& fallback) {
+    if (override_value) return *override_value;
+    if (file_value) return *file_value;
+    if (record != nullptr) return *record;
+    return fallback;
+  };
+  const EntryFitSettings* settings = recorded != nullptr ? &recorded->settings : nullptr;
+  fit_options.objective = pick(options.objective_override, request.objective,
+                               settings ? &settings->objective : nullptr, fit_options.objective);
+  fit_options.extrapolation_guard =
+      pick(options.extrapolation_guard_override, request.extrapolation_guard,
+           settings ? &settings->extrapolation_guard : nullptr, fit_options.extrapolation_guard);
+  fit_options.error_scales =
+      pick(options.error_scales_override, request.error_scales,
+           settings ? &settings->error_scales : nullptr, fit_options.error_scales);
   fit_options.num_atoms = species.NumAtoms();
   return fit_options;
 }
@@ -85,7 +109,7 @@ ExactCurves ExactCurvesFor(const Species& species, double* formation_enthalpy_j_
   return curves;
 }
 
-std::string ModelDescription(const Species& species, const FitOptions& options) {
+std::string ModelDescription(const Species& species) {
   std::string model = "ideal gas; translation; electronic levels";
   if (!species.diatomic_states.empty()) {
     model += "; diatomic rovibrational direct sum";
@@ -95,10 +119,6 @@ std::string ModelDescription(const Species& species, const FitOptions& options) 
   }
   if (species.nuclear_spin) model += "; nuclear-spin statistics " + ToString(species.nuclear_spin->mixture);
   if (!species.torsions.empty()) model += fmt::format("; {} hindered rotor(s)", species.torsions.size());
-  model += options.t_mid_k ? fmt::format("; fit t_mid fixed at {} K", *options.t_mid_k)
-                           : std::string("; fit t_mid auto");
-  if (options.continuous_second_derivative) model += "; d2Cp/dT2 continuous";
-  if (options.pin_reference_state) model += "; H and S pinned at 298.15 K";
   return model;
 }
 
@@ -162,9 +182,16 @@ Entry MakeEntry(const SpeciesFit& result, const RegenerateOptions& options) {
   entry.formation_enthalpy_j_per_mol = result.formation_enthalpy_j_per_mol;
   entry.reference_pressure_pa = species.standard_pressure_pa;
   entry.quality = result.fit.quality;
+  const FitOptions fit_options = FitOptionsFor(species, options);
+  EntryFitSettings& settings = entry.fit_settings;
+  settings.objective = fit_options.objective;
+  settings.error_scales = fit_options.error_scales;
+  settings.extrapolation_guard = fit_options.extrapolation_guard;
+  settings.t_mid_fixed = fit_options.t_mid_k.has_value();
+  settings.continuous_second_derivative = fit_options.continuous_second_derivative;
   entry.provenance.input_sha256 = species.input_digest;
   entry.provenance.tool_version = SEVENFOLD_VERSION;
-  entry.provenance.model_options = ModelDescription(species, FitOptionsFor(species, options));
+  entry.provenance.model_options = ModelDescription(species);
   entry.provenance.source_file = species.location.file;
   return entry;
 }

@@ -4,6 +4,7 @@
 #pragma once
 
 #include <functional>
+#include <map>
 #include <optional>
 #include <string>
 #include <vector>
@@ -13,6 +14,13 @@
 #include "species/species.h"
 
 namespace sevenfold {
+
+// What a committed entry records about how it was made: `check` regenerates with these settings
+// wherever neither the command line nor the species file decides.
+struct RecordedFit {
+  EntryFitSettings settings;
+  double t_mid_k = 0.0;  // the entry's T_mid; used when settings.t_mid_fixed
+};
 
 struct RegenerateOptions {
   // Overrides every species' mid temperature (K); empty: each species' own setting.
@@ -24,6 +32,10 @@ struct RegenerateOptions {
   std::optional<FitObjective> objective_override;
   std::optional<ExtrapolationGuard> extrapolation_guard_override;
   std::optional<ErrorScales> error_scales_override;
+  // By species name: what the committed entries record (filled by `check`, empty otherwise).
+  // Precedence of every setting: command line > species file (Species::fit_request) > recorded
+  // here > default. d2Cp/dT2 continuity: on when continuous_second_derivative or recorded.
+  std::map<std::string, RecordedFit> recorded;
   // Worker threads; 0 means the machine's hardware threads.
   int num_jobs = 0;
   // Called after each species finishes, from a worker thread (must be thread-safe).
@@ -59,7 +71,11 @@ std::vector<SpeciesFit> FitAllSpecies(const std::vector<Species>& species,
 Entry MakeEntry(const SpeciesFit& result, const RegenerateOptions& options);
 EntriesFile MakeEntriesFile(const std::vector<SpeciesFit>& results, const RegenerateOptions& options);
 
-// The fit options a species gets under `options`.
+// Records in options->recorded the fit settings of every entry of `committed`, so that a
+// regeneration makes each entry the way it was made.
+void RecordCommittedSettings(const EntriesFile& committed, RegenerateOptions* options);
+
+// The fit options a species gets under `options` (precedence: see RegenerateOptions::recorded).
 FitOptions FitOptionsFor(const Species& species, const RegenerateOptions& options);
 
 // Exact dimensionless curves of a species on the fit grid of its temperature range (the model
@@ -68,8 +84,9 @@ FitOptions FitOptionsFor(const Species& species, const RegenerateOptions& option
 // from the species' 0 K value when that is what the file gives).
 ExactCurves ExactCurvesFor(const Species& species, double* formation_enthalpy_j_per_mol = nullptr);
 
-// A one-line description of the physical model and fit options used for a species; written
-// into each entry's provenance so that a change of model shows as a change of entry.
-std::string ModelDescription(const Species& species, const FitOptions& options);
+// A one-line description of the physical model of a species (the fit settings are recorded in
+// fields of their own, EntryFitSettings); written into each entry's provenance so that a change
+// of model shows as a change of entry.
+std::string ModelDescription(const Species& species);
 
 }  // namespace sevenfold

@@ -58,11 +58,24 @@ std::string PressureLabel(double pressure_pa) {
   return fmt::format("{} Pa", pressure_pa);
 }
 
+bool HasRangeColumn(const std::vector<TableRow>& rows) {
+  return !rows.empty() && rows.front().outside_range.has_value();
+}
+
 std::string FormatText(const std::vector<TableRow>& rows) {
   std::string out;
   std::string current;
+  bool marked = false;  // a row of the current species is outside its range
+  const auto footnote = [&]() {
+    if (marked) {
+      out += fmt::format("{} outside the entry's fitted range: the polynomial extrapolates\n",
+                         kOutsideRangeMarker);
+    }
+    marked = false;
+  };
   for (const TableRow& row : rows) {
     if (row.species != current || out.empty()) {
+      footnote();
       current = row.species;
       if (!out.empty()) out += "\n";
       out += fmt::format("{}  (ideal gas, standard pressure {})\n", row.species,
@@ -73,20 +86,28 @@ std::string FormatText(const std::vector<TableRow>& rows) {
                          "J/mol/K", "kJ/mol", "kJ/mol", "J/mol/K");
     }
     const ThermoPoint& p = row.point;
-    out += fmt::format("{:>10.2f} {:>10.3f} {:>10.3f} {:>11.3f} {:>12.3f} {:>12.3f}\n", p.t_k,
+    const bool outside = row.outside_range.value_or(false);
+    marked = marked || outside;
+    out += fmt::format("{:>10.2f} {:>10.3f} {:>10.3f} {:>11.3f} {:>12.3f} {:>12.3f}{}\n", p.t_k,
                        p.cp_j_per_mol_k, p.s_j_per_mol_k, p.h_minus_h298_j_per_mol / 1000.0,
-                       p.h_j_per_mol / 1000.0, GibbsFunction(p));
+                       p.h_j_per_mol / 1000.0, GibbsFunction(p),
+                       outside ? std::string(" ") + kOutsideRangeMarker : std::string());
   }
+  footnote();
   return out;
 }
 
 std::string FormatCsv(const std::vector<TableRow>& rows) {
-  std::string out = std::string(kTableCsvHeader) + "\n";
+  const bool range_column = HasRangeColumn(rows);
+  std::string out = std::string(kTableCsvHeader) +
+                    (range_column ? std::string(",") + kOutsideRangeColumn : std::string()) + "\n";
   for (const TableRow& row : rows) {
     const ThermoPoint& p = row.point;
-    out += fmt::format("{},{},{},{},{},{},{}\n", row.species, p.t_k, p.cp_j_per_mol_k,
+    out += fmt::format("{},{},{},{},{},{},{}{}\n", row.species, p.t_k, p.cp_j_per_mol_k,
                        p.s_j_per_mol_k, p.h_minus_h298_j_per_mol / 1000.0,
-                       p.h_j_per_mol / 1000.0, GibbsFunction(p));
+                       p.h_j_per_mol / 1000.0, GibbsFunction(p),
+                       range_column ? (row.outside_range.value_or(false) ? ",true" : ",false")
+                                    : "");
   }
   return out;
 }
@@ -112,9 +133,12 @@ std::string FormatJson(const std::vector<TableRow>& rows) {
     const ThermoPoint& p = row.point;
     out += fmt::format(
         "{}\n      {{\"T\": {}, \"Cp\": {}, \"S\": {}, \"H-H298\": {}, \"H\": {}, "
-        "\"-(G-H298)/T\": {}}}",
+        "\"-(G-H298)/T\": {}{}}}",
         first_row ? "" : ",", p.t_k, p.cp_j_per_mol_k, p.s_j_per_mol_k,
-        p.h_minus_h298_j_per_mol / 1000.0, p.h_j_per_mol / 1000.0, GibbsFunction(p));
+        p.h_minus_h298_j_per_mol / 1000.0, p.h_j_per_mol / 1000.0, GibbsFunction(p),
+        row.outside_range ? fmt::format(", \"{}\": {}", kOutsideRangeColumn,
+                                        *row.outside_range ? "true" : "false")
+                          : std::string());
     first_row = false;
   }
   if (!first_species) out += "\n    ]}";

@@ -20,7 +20,15 @@ struct TableRow {
   std::string species;
   double standard_pressure_pa = 1.0e5;  // the pressure the entropy refers to
   ThermoPoint point;
+  // Set for rows evaluated from a fitted entry (eval): whether t_k lies outside the entry's
+  // [T_low, T_high], where the polynomial extrapolates. Unset for exact tables.
+  std::optional<bool> outside_range;
 };
+
+// The column eval adds to CSV and JSON; text marks such rows with kOutsideRangeMarker and a
+// footnote per species.
+inline constexpr const char* kOutsideRangeColumn = "outside_range";
+inline constexpr const char* kOutsideRangeMarker = "*";
 
 // The CSV header, fixed: species,T/K,Cp/(J/mol/K),S/(J/mol/K),H-H298/(kJ/mol),H/(kJ/mol),
 // -(G-H298)/T/(J/mol/K). CSV and JSON numbers are in shortest round-trip form.
@@ -31,7 +39,9 @@ inline constexpr const char* kTableCsvHeader =
 double GibbsFunction(const ThermoPoint& point);
 
 // Formats rows (grouped by species in the given order). Text and JSON state each species'
-// standard pressure; the CSV header is fixed, so CSV users take it from the species file.
+// standard pressure; the CSV header is fixed, so CSV users take it from the species file. When
+// the rows carry outside_range (eval), CSV gains the column outside_range (true/false), JSON a
+// key of that name per row, and text a marker column with a footnote under each species.
 std::string FormatTable(const std::vector<TableRow>& rows, TableFormat format);
 
 // The default temperatures of a table over [low_k, high_k]: both ends, 298.15 K when inside, and
