@@ -163,6 +163,18 @@ class Entries {
   std::vector<Entry> entries_;
 };
 
+// A species while it is read: its values so far, and what the later sections may rely on. The
+// section readers take it instead of a row of flags.
+struct SpeciesDraft {
+  Species species;
+  YAML::Node label;                  // the label key: where missing keys are reported
+  const Entries* entries = nullptr;  // the species' keys
+  bool formula_ok = false;           // composition and charge read
+  bool shape_ok = false;             // shape read and consistent with the atom count
+  bool vibrations_ok = false;        // vibrations read without a problem
+  bool has_rovibrational = false;    // rovibrational-constants given (B and modes may be omitted)
+};
+
 // The file-level settings every species starts from.
 struct Defaults {
   TemperatureRanges temperatures;
@@ -297,30 +309,16 @@ class FileParser {
                                                  std::vector<NameRecord>* names);
   std::vector<Species> ParseWholeDocument(std::vector<NameRecord>* names);
   bool ReadFormula(const YAML::Node& value, Species* species);
-  void ReadRotation(const YAML::Node& block,
-                    const Entries& entries,
-                    bool composition_ok,
-                    bool shape_ok,
-                    bool has_diatomic,
-                    Species* species);
+  void ReadRotation(SpeciesDraft* draft);
   std::optional<std::vector<GeometryAtom>> ReadGeometry(const YAML::Node& value);
-  void ReadVibrations(const YAML::Node& block,
-                      const Entries& entries,
-                      bool composition_ok,
-                      bool shape_ok,
-                      bool has_diatomic,
-                      Species* species);
+  void ReadVibrations(SpeciesDraft* draft);
   void ReadElectronicLevels(const YAML::Node& value, Species* species);
-  void ReadDiatomic(const Entry& entry,
-                    const Entries& entries,
-                    bool composition_ok,
-                    bool shape_ok,
-                    Species* species);
+  void ReadDiatomic(const Entry& entry, SpeciesDraft* draft);
   std::optional<DiatomicState> ReadDiatomicState(const YAML::Node& value,
                                                  const std::string& key,
                                                  bool list_form);
-  void ReadNuclearSpin(const Entry& entry, bool composition_ok, bool shape_ok, Species* species);
-  void ReadTorsions(const Entry& entry, bool shape_ok, bool vibrations_ok, Species* species);
+  void ReadNuclearSpin(const Entry& entry, SpeciesDraft* draft);
+  void ReadTorsions(const Entry& entry, SpeciesDraft* draft);
 
   const std::string& text_;
   const std::string& file_name_;
@@ -647,12 +645,12 @@ std::optional<std::vector<GeometryAtom>> FileParser::ReadGeometry(const YAML::No
   return atoms;
 }
 
-void FileParser::ReadRotation(const YAML::Node& block,
-                              const Entries& entries,
-                              bool composition_ok,
-                              bool shape_ok,
-                              bool has_diatomic,
-                              Species* species) {
+void FileParser::ReadRotation(SpeciesDraft* draft) {
+  const YAML::Node& block = draft->label;
+  const Entries& entries = *draft->entries;
+  const bool composition_ok = draft->formula_ok, shape_ok = draft->shape_ok;
+  const bool has_diatomic = draft->has_rovibrational;
+  Species* species = &draft->species;
   const Entry* constants_entry = entries.Find("rotational-constants");
   const Entry* moments_entry = entries.Find("moments-of-inertia");
   const Entry* geometry_entry = entries.Find("structure");
@@ -808,12 +806,12 @@ void FileParser::ReadRotation(const YAML::Node& block,
   }
 }
 
-void FileParser::ReadVibrations(const YAML::Node& block,
-                                const Entries& entries,
-                                bool composition_ok,
-                                bool shape_ok,
-                                bool has_diatomic,
-                                Species* species) {
+void FileParser::ReadVibrations(SpeciesDraft* draft) {
+  const YAML::Node& block = draft->label;
+  const Entries& entries = *draft->entries;
+  const bool composition_ok = draft->formula_ok, shape_ok = draft->shape_ok;
+  const bool has_diatomic = draft->has_rovibrational;
+  Species* species = &draft->species;
   const Entry* entry = entries.Find("vibrations");
   const int num_atoms = species->NumAtoms();
   if (!entry) {
@@ -1000,11 +998,10 @@ std::optional<DiatomicState> FileParser::ReadDiatomicState(const YAML::Node& val
   return state;
 }
 
-void FileParser::ReadDiatomic(const Entry& entry,
-                              const Entries& entries,
-                              bool composition_ok,
-                              bool shape_ok,
-                              Species* species) {
+void FileParser::ReadDiatomic(const Entry& entry, SpeciesDraft* draft) {
+  const Entries& entries = *draft->entries;
+  const bool composition_ok = draft->formula_ok, shape_ok = draft->shape_ok;
+  Species* species = &draft->species;
   if (composition_ok && shape_ok &&
       (species->shape != Shape::kLinear || species->NumAtoms() != 2)) {
     Fail(entry.key_node,
@@ -1064,10 +1061,9 @@ void FileParser::ReadDiatomic(const Entry& entry,
   }
 }
 
-void FileParser::ReadNuclearSpin(const Entry& entry,
-                                 bool composition_ok,
-                                 bool shape_ok,
-                                 Species* species) {
+void FileParser::ReadNuclearSpin(const Entry& entry, SpeciesDraft* draft) {
+  const bool composition_ok = draft->formula_ok, shape_ok = draft->shape_ok;
+  Species* species = &draft->species;
   if (composition_ok && shape_ok &&
       (species->shape != Shape::kLinear || species->composition.size() != 1 ||
        species->composition.front().second != 2)) {
@@ -1120,10 +1116,11 @@ void FileParser::ReadNuclearSpin(const Entry& entry,
   if (ok) species->nuclear_spin = spin;
 }
 
-void FileParser::ReadTorsions(const Entry& entry,
-                              bool shape_ok,
-                              bool vibrations_ok,
-                              Species* species) {
+void FileParser::ReadTorsions(const Entry& entry, SpeciesDraft* draft) {
+  const bool shape_ok = draft->shape_ok;
+  // Modes can be matched only when the vibrations and the atom count behind them read cleanly.
+  const bool vibrations_ok = draft->vibrations_ok && draft->formula_ok;
+  Species* species = &draft->species;
   if (shape_ok && species->shape != Shape::kNonlinear) {
     Fail(entry.key_node,
          "hindered-rotors",
@@ -1521,7 +1518,9 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& label_node,
                                                std::vector<NameRecord>* names) {
   context_ = "species #" + std::to_string(index + 1);
   const std::size_t before = problems_->size();
-  Species species;
+  SpeciesDraft draft;
+  draft.label = label_node;
+  Species& species = draft.species;
   species.location = Where(label_node);
   const std::string label = label_node.IsScalar() ? label_node.Scalar() : "";
   const bool label_bad = !label_node.IsScalar() || label.empty() ||
@@ -1541,13 +1540,14 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& label_node,
   const std::optional<Entries> entries_or = ReadEntries(node, "", kSpeciesKeys);
   if (!entries_or) return std::nullopt;
   const Entries& entries = *entries_or;
+  draft.entries = &entries;
 
   species.temperatures = defaults.temperatures;
   species.standard_pressure_pa = defaults.pressure_pa;
   species.thresholds = defaults.thresholds;
   species.fit_request = defaults.fit_request;
 
-  bool composition_ok = false;
+  bool& composition_ok = draft.formula_ok;
   if (const Entry* entry = entries.Find("formula")) {
     composition_ok = ReadFormula(entry->value, &species);
   } else {
@@ -1583,7 +1583,7 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& label_node,
          "the enthalpy of formation at 298.15 K (or formation-enthalpy-0k, at 0 K)");
   }
 
-  bool shape_ok = false;
+  bool& shape_ok = draft.shape_ok;
   const Entry* shape_entry = entries.Find("shape");
   if (shape_entry) {
     const auto text = ReadString(shape_entry->value, "shape", "atom, linear or nonlinear");
@@ -1643,10 +1643,11 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& label_node,
   if (const Entry* entry = entries.Find("spin-multiplicity")) {
     ReadSpinMultiplicity(*entry, entries, &species);
   }
-  if (diatomic_entry) ReadDiatomic(*diatomic_entry, entries, composition_ok, shape_ok, &species);
-  const bool has_diatomic = diatomic_entry != nullptr;
+  if (diatomic_entry) ReadDiatomic(*diatomic_entry, &draft);
+  draft.has_rovibrational = diatomic_entry != nullptr;
+  const bool has_diatomic = draft.has_rovibrational;
 
-  ReadRotation(label_node, entries, composition_ok, shape_ok, has_diatomic, &species);
+  ReadRotation(&draft);
   if (has_diatomic && species.rotational_constants_cm1.empty() &&
       !species.diatomic_states.empty()) {
     // Rigid-rotor stand-in: B_0 = B_e - alpha_e / 2 of the ground state.
@@ -1654,8 +1655,8 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& label_node,
     species.rotational_constants_cm1 = {ground.be_cm1 - 0.5 * ground.alphae_cm1};
   }
   const std::size_t before_vibrations = problems_->size();
-  ReadVibrations(label_node, entries, composition_ok, shape_ok, has_diatomic, &species);
-  const bool vibrations_ok = problems_->size() == before_vibrations;
+  ReadVibrations(&draft);
+  draft.vibrations_ok = problems_->size() == before_vibrations;
 
   if (const Entry* entry = entries.Find("frequency-scale")) {
     if (const auto scale = ReadInRange(entry->value,
@@ -1696,10 +1697,10 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& label_node,
     ReadThresholds(entry->value, "fit-thresholds", &species.thresholds);
   }
   if (const Entry* entry = entries.Find("spin-statistics")) {
-    ReadNuclearSpin(*entry, composition_ok, shape_ok, &species);
+    ReadNuclearSpin(*entry, &draft);
   }
   if (const Entry* entry = entries.Find("hindered-rotors")) {
-    ReadTorsions(*entry, shape_ok, vibrations_ok && composition_ok, &species);
+    ReadTorsions(*entry, &draft);
   }
 
   if (problems_->size() == before && composition_ok) CheckKramers(label_node, entries, species);
@@ -1709,7 +1710,7 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& label_node,
   AppendCanonical(node, &canonical);
   canonical += defaults_canonical_;
   species.input_digest = Sha256Hex(canonical);
-  return species;
+  return std::move(species);
 }
 
 bool FileParser::Parse(std::vector<NameRecord>* names,
