@@ -1458,6 +1458,12 @@ TEST_CASE("the upgrade script turns first-layout files into files with identical
       dir.Write("unknown.yaml", "species:\n  - name: Ar\n    composition: {Ar: 1}\n    colour: red\n");
   CHECK(upgrade(unknown, refused_path) == 2);
   CHECK_THAT(testing::ReadWhole(dir.Path("upgrade.err")), Contains("unknown key 'colour'"));
+  const std::string twice = dir.Write(
+      "twice.yaml", "species:\n  - name: Ar\n    composition: {Ar: 1}\n    shape: atom\n"
+                    "    shape: linear\n");
+  CHECK(upgrade(twice, refused_path) == 2);
+  CHECK_THAT(testing::ReadWhole(dir.Path("upgrade.err")),
+             Contains("line 5: key 'shape' given twice (first on line 4)"));
   CHECK_FALSE(std::filesystem::exists(refused_path));
 }
 
