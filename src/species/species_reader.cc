@@ -213,7 +213,7 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& label_node,
   }
 
   const Entry* diatomic_entry = entries.Find("rovibrational-constants");
-  // Electronic levels first: the map form of diatomic-constants takes the ground degeneracy.
+  // Electronic levels first: the map form of rovibrational-constants takes the ground degeneracy.
   const Entry* levels_entry = entries.Find("electronic-levels");
   if (levels_entry) ReadElectronicLevels(levels_entry->value, &species);
   if (const Entry* entry = entries.Find("spin-multiplicity")) {
