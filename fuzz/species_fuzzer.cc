@@ -34,6 +34,19 @@ void CheckLoaded(const sevenfold::Species& s) {
   if (s.name.empty()) Finding("a species without a name");
   if (s.composition.empty()) Finding("species '" + s.name + "' without composition");
   RequireFinite(s.formation_enthalpy_j_per_mol, s.name, "formation enthalpy");
+  if (s.formation_enthalpy_0k_j_per_mol) {
+    RequireFinite(*s.formation_enthalpy_0k_j_per_mol, s.name, "formation enthalpy at 0 K");
+  }
+  // Kramers: the reader refuses an odd-electron species with a single ground level.
+  if (s.NumElectrons() % 2 != 0 && s.electronic_levels.front().degeneracy == 1.0) {
+    Finding("species '" + s.name + "': odd electron count with a single ground level");
+  }
+  for (const sevenfold::Torsion& torsion : s.torsions) {
+    if (torsion.mode_index < 0 ||
+        torsion.mode_index >= static_cast<int>(s.vibrations_cm1.size())) {
+      Finding("species '" + s.name + "': a hindered rotor without a valid mode index");
+    }
+  }
   RequireFinite(s.symmetry_number, s.name, "symmetry number");
   RequireFinite(s.frequency_scale, s.name, "frequency scale");
   if (!(s.temperatures.low_k < s.temperatures.high_k)) Finding(s.name + ": low >= high");

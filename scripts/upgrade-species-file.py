@@ -83,10 +83,25 @@ class Refused(Exception):
     pass
 
 
+class StrictLoader(yaml.BaseLoader):
+    """BaseLoader (every scalar stays text, as sevenfold's own reader sees it: NO is not False)
+    that refuses a key given twice in one map instead of keeping the last."""
+
+    def construct_mapping(self, node, deep=False):
+        seen = {}
+        for key_node, _ in node.value:
+            key = self.construct_object(key_node, deep=deep)
+            if isinstance(key, str) and key in seen:
+                raise Refused(f"line {key_node.start_mark.line + 1}: key '{key}' given twice "
+                              f"(first on line {seen[key] + 1})")
+            if isinstance(key, str):
+                seen[key] = key_node.start_mark.line
+        return super().construct_mapping(node, deep=deep)
+
+
 def load(text):
-    # BaseLoader: every scalar stays text, as sevenfold's own reader sees it (NO is not False).
     try:
-        docs = list(yaml.load_all(text, Loader=yaml.BaseLoader))
+        docs = list(yaml.load_all(text, Loader=StrictLoader))
     except yaml.YAMLError as error:
         raise Refused(f"not valid YAML ({error})")
     except RecursionError:

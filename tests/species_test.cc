@@ -941,6 +941,21 @@ void CheckSameSpecies(const Species& a, const Species& b) {
   CHECK(a.thresholds.max_cp_relative == b.thresholds.max_cp_relative);
   CHECK(a.thresholds.max_h_over_rt == b.thresholds.max_h_over_rt);
   CHECK(a.thresholds.max_s_over_r == b.thresholds.max_s_over_r);
+  CHECK(a.formation_enthalpy_0k_j_per_mol == b.formation_enthalpy_0k_j_per_mol);
+  CHECK(a.fit_request.mid_given == b.fit_request.mid_given);
+  CHECK(a.fit_request.objective == b.fit_request.objective);
+  CHECK(a.fit_request.extrapolation_guard.has_value() ==
+        b.fit_request.extrapolation_guard.has_value());
+  if (a.fit_request.extrapolation_guard && b.fit_request.extrapolation_guard) {
+    CHECK(ToString(*a.fit_request.extrapolation_guard) ==
+          ToString(*b.fit_request.extrapolation_guard));
+  }
+  CHECK(a.fit_request.error_scales.has_value() == b.fit_request.error_scales.has_value());
+  if (a.fit_request.error_scales && b.fit_request.error_scales) {
+    CHECK(a.fit_request.error_scales->cp_relative == b.fit_request.error_scales->cp_relative);
+    CHECK(a.fit_request.error_scales->h_over_rt == b.fit_request.error_scales->h_over_rt);
+    CHECK(a.fit_request.error_scales->s_over_r == b.fit_request.error_scales->s_over_r);
+  }
   REQUIRE(a.diatomic_states.size() == b.diatomic_states.size());
   for (std::size_t i = 0; i < a.diatomic_states.size(); ++i) {
     const DiatomicState& x = a.diatomic_states[i];
@@ -1443,6 +1458,12 @@ TEST_CASE("the upgrade script turns first-layout files into files with identical
       dir.Write("unknown.yaml", "species:\n  - name: Ar\n    composition: {Ar: 1}\n    colour: red\n");
   CHECK(upgrade(unknown, refused_path) == 2);
   CHECK_THAT(testing::ReadWhole(dir.Path("upgrade.err")), Contains("unknown key 'colour'"));
+  const std::string twice = dir.Write(
+      "twice.yaml", "species:\n  - name: Ar\n    composition: {Ar: 1}\n    shape: atom\n"
+                    "    shape: linear\n");
+  CHECK(upgrade(twice, refused_path) == 2);
+  CHECK_THAT(testing::ReadWhole(dir.Path("upgrade.err")),
+             Contains("line 5: key 'shape' given twice (first on line 4)"));
   CHECK_FALSE(std::filesystem::exists(refused_path));
 }
 

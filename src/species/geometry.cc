@@ -13,7 +13,7 @@
 namespace sevenfold {
 
 RigidRotor AnalyzeGeometry(const std::vector<GeometryAtom>& atoms) {
-  if (atoms.empty()) throw Error("geometry: no atoms; expected at least one atom");
+  if (atoms.empty()) throw Error("structure: no atoms; expected at least one atom");
   std::vector<double> masses;
   std::vector<Eigen::Vector3d> positions;
   double total_mass = 0.0;

@@ -49,7 +49,7 @@ double Species::MolarMassKgPerMol() const {
     const std::optional<double> weight = AtomicWeightGPerMol(symbol);
     if (!weight) {
       throw Error(location,
-                  "species '" + name + "': composition: unknown element '" + symbol +
+                  "species '" + name + "': formula: unknown element '" + symbol +
                       "'; expected an element symbol such as C, O or D");
     }
     mass_g_per_mol += *weight * count;

@@ -54,7 +54,7 @@ struct DiatomicConstants {
   double dissociation_cm1 = 0.0;   // D_0 measured from the v=0, J=0 level of this state
 };
 
-// One electronic state with its own diatomic constants (list form of diatomic-constants).
+// One electronic state with its own diatomic constants (list form of rovibrational-constants).
 struct DiatomicState {
   double energy_cm1 = 0.0;  // T_e-like term value of the state's v=0,J=0 level above the ground's
   double degeneracy = 1.0;
