@@ -15,6 +15,10 @@
 #include <fstream>
 #include <iostream>
 #include <regex>
+#include <set>
+#include <fcntl.h>
+#include <signal.h>
+#include <sys/stat.h>
 #include <sstream>
 #include <string>
 #include <vector>
@@ -571,5 +575,122 @@ TEST_CASE("the demo's report stays within its size budget per species", "[report
   const double per_species = total_bytes / num_species;
   INFO(num_species << " species, " << total_bytes << " bytes, " << per_species << " per species");
   CHECK(per_species <= kMaxBytesPerSpecies);
+  fs::remove_all(dir);
+}
+
+namespace {
+
+// The names in `dir`.
+std::set<std::string> Listing(const fs::path& dir) {
+  std::set<std::string> names;
+  for (const auto& entry : fs::directory_iterator(dir)) names.insert(entry.path().filename().string());
+  return names;
+}
+
+const std::set<std::string> kReportFiles = {"index.html", "summary.md", "summary.json"};
+
+// Writes an old report (H2O only) into `dir` and returns its three files' contents.
+std::vector<std::string> OldReport(const fs::path& dir) {
+  const RunResult old = Run("report tests/data/reference-species.yaml -q --jobs 1 --species H2O -o " +
+                            dir.string());
+  REQUIRE(old.exit_status == 0);
+  std::vector<std::string> contents;
+  for (const std::string& file : kReportFiles) contents.push_back(ReadWhole((dir / file).string()));
+  return contents;
+}
+
+std::vector<std::string> Contents(const fs::path& dir) {
+  std::vector<std::string> contents;
+  for (const std::string& file : kReportFiles) contents.push_back(ReadWhole((dir / file).string()));
+  return contents;
+}
+
+}  // namespace
+
+TEST_CASE("a report that cannot be written whole leaves the old report whole", "[report]") {
+  const fs::path dir = NewTempDir("sevenfold_report_full");
+  const std::vector<std::string> old = OldReport(dir / "out");
+  // A file-size limit of 64 KiB (EFBIG even for root; SIGXFSZ ignored so write() fails): the new
+  // summary.json and summary.md fit, the new index.html does not. Written one by one, two files
+  // would be new and one old; as a batch, all stay old.
+  const RunResult run = testing::RunBinary("report tests/data/reference-species.yaml -q --jobs 1 -o " +
+                                (dir / "out").string(),
+                            "trap \"\" XFSZ; ulimit -f 128;");
+  INFO(run.err);
+  CHECK(run.exit_status == 2);
+  CHECK_THAT(run.err, Catch::Contains("index.html: cannot write: File too large"));
+  CHECK(Contents(dir / "out") == old);
+  CHECK(Listing(dir / "out") == kReportFiles);
+  fs::remove_all(dir);
+}
+
+TEST_CASE("SIGINT or SIGTERM while the report is written removes the temporaries, old files stay",
+          "[report]") {
+  for (const auto& [signal_name, status] : {std::pair<const char*, int>{"INT", 130}, {"TERM", 143}}) {
+    const fs::path dir = NewTempDir("sevenfold_report_signal");
+    const std::vector<std::string> old = OldReport(dir / "out");
+    // summary.md becomes a FIFO with no reader: the command stages the temporaries of the two
+    // regular files, then blocks opening the FIFO, in the middle of its output. Then the signal.
+    fs::remove(dir / "out" / "summary.md");
+    REQUIRE(mkfifo((dir / "out" / "summary.md").string().c_str(), 0600) == 0);
+    const pid_t pid = fork();
+    REQUIRE(pid >= 0);
+    if (pid == 0) {
+      // The child: the command with default signal dispositions, output discarded.
+      const int null_fd = open("/dev/null", O_RDWR);
+      dup2(null_fd, 0);
+      dup2(null_fd, 1);
+      dup2(null_fd, 2);
+      if (chdir(SEVENFOLD_SOURCE_DIR) != 0) _exit(99);
+      const std::string out = (dir / "out").string();
+      execl(SEVENFOLD_BINARY, SEVENFOLD_BINARY, "report", "tests/data/reference-species.yaml",
+            "-q", "--jobs", "1", "-o", out.c_str(), static_cast<char*>(nullptr));
+      _exit(98);
+    }
+    // Wait (up to 60 s: the machine may be busy) for the two temporaries to appear.
+    const auto num_temporaries = [&] {
+      int n = 0;
+      for (const std::string& name : Listing(dir / "out")) n += name.find(".tmp-") != std::string::npos;
+      return n;
+    };
+    int seen = 0;
+    for (int i = 0; i < 1200 && seen < 2; ++i) {
+      seen = num_temporaries();
+      if (seen < 2) usleep(50000);
+    }
+    kill(pid, std::string(signal_name) == "INT" ? SIGINT : SIGTERM);
+    int raw = 0;
+    REQUIRE(waitpid(pid, &raw, 0) == pid);
+    INFO(signal_name);
+    REQUIRE(WIFEXITED(raw));
+    CHECK(WEXITSTATUS(raw) == status);
+    CHECK(seen == 2);                             // the temporaries existed
+    CHECK(Listing(dir / "out") == kReportFiles);                 // and are gone
+    CHECK(ReadWhole((dir / "out" / "index.html").string()) == old[0]);
+    CHECK(ReadWhole((dir / "out" / "summary.json").string()) == old[1]);
+    fs::remove_all(dir);
+  }
+}
+
+TEST_CASE("a report over one of its inputs or into a non-folder is refused before any work",
+          "[report]") {
+  const fs::path dir = NewTempDir("sevenfold_report_inputs");
+  fs::create_directories(dir / "out");
+  const std::string entries = (dir / "out" / "summary.md").string();
+  WriteWhole(entries, FormatEntries(Fitted().entries));
+  const std::string before = ReadWhole(entries);
+  const RunResult over_input = Run("report tests/data/reference-species.yaml -q --entries " +
+                                   entries + " -o " + (dir / "out").string());
+  CHECK(over_input.exit_status == 2);
+  CHECK_THAT(over_input.err, Catch::Contains("is the same file as the input"));
+  CHECK(ReadWhole(entries) == before);
+  CHECK(Listing(dir / "out") == std::set<std::string>{"summary.md"});
+
+  WriteWhole((dir / "plain").string(), "a file\n");
+  const RunResult into_file =
+      Run("report tests/data/reference-species.yaml -q -o " + (dir / "plain").string());
+  CHECK(into_file.exit_status == 2);
+  CHECK_THAT(into_file.err, Catch::Contains("exists and is not a folder"));
+  CHECK(ReadWhole((dir / "plain").string()) == "a file\n");
   fs::remove_all(dir);
 }
