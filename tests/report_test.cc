@@ -14,6 +14,7 @@
 #include <filesystem>
 #include <fstream>
 #include <iostream>
+#include <optional>
 #include <regex>
 #include <set>
 #include <fcntl.h>
@@ -24,8 +25,11 @@
 #include <vector>
 
 #include "core/constants.h"
+#include "core/output_text.h"
 #include "entries/entries.h"
+#include "mechanism/check.h"
 #include "mechanism/regenerate.h"
+#include "report/table_writer.h"
 #include "report/report_data.h"
 #include "report/report_document.h"
 #include "report/report_svg.h"
@@ -693,4 +697,174 @@ TEST_CASE("a report over one of its inputs or into a non-folder is refused befor
   CHECK_THAT(into_file.err, Catch::Contains("exists and is not a folder"));
   CHECK(ReadWhole((dir / "plain").string()) == "a file\n");
   fs::remove_all(dir);
+}
+
+namespace {
+
+// Names an attacker could choose: markup, script, entities, CDATA end, quotes, a CSV formula,
+// Markdown syntax, terminal escapes, a bidi override, a newline, a NUL, invalid UTF-8.
+const std::vector<std::string> kHostileNames = {
+    "<script>alert(1)</script>",
+    "| *bold* _em_ `code` [link](x) # \\",
+    "\x1b[31mred\x1b[0m",
+    "=HYPERLINK(\"x\")",
+    "a&amp;b]]><!--",
+    "\"quoted\" 'single'",
+    "+1-1@a",
+    "right\u202eto left",
+    "two\nlines\r\n",
+    std::string("nul\0byte", 8),
+    "bad\xff\xfe utf8 \xc3",
+};
+
+// Runs python3 (standard library only) on `program` with `path` as argument; true when it exits 0.
+// Returns nullopt when python3 is not installed.
+std::optional<bool> PythonAccepts(const std::string& program, const std::string& path) {
+  if (std::system("command -v python3 >/dev/null 2>&1") != 0) return std::nullopt;
+  const std::string command = "python3 -c '" + program + "' " + path + " 2>&1";
+  FILE* pipe = popen(command.c_str(), "r");
+  REQUIRE(pipe != nullptr);
+  std::string output;
+  char buffer[512];
+  while (std::fgets(buffer, sizeof buffer, pipe) != nullptr) output += buffer;
+  const int status = pclose(pipe);
+  INFO(output);
+  return WIFEXITED(status) && WEXITSTATUS(status) == 0;
+}
+
+constexpr const char* kParseJson =
+    "import json,sys; json.loads(open(sys.argv[1],\"rb\").read().decode(\"utf-8\"))";
+constexpr const char* kParseXml = "import sys,xml.etree.ElementTree as E; E.parse(sys.argv[1])";
+
+}  // namespace
+
+TEST_CASE("hostile names stay data in every output: JSON, XML, HTML, Markdown, CSV, text",
+          "[report]") {
+  const fs::path dir = NewTempDir("sevenfold_report_hostile");
+  ReportData data = Analyse(WithSpoiledEntry(Fitted().entries, "H2O"), &Fitted().entries, 1);
+  data.species_files.push_back("species/\x1b]0;title\x07.yaml");
+  data.entries_without_species = kHostileNames;
+  for (size_t i = 0; i < data.species.size(); ++i) {
+    data.species[i].name = kHostileNames[i % kHostileNames.size()];
+    data.species[i].notes.push_back(kHostileNames[(i + 5) % kHostileNames.size()]);
+    data.species[i].source = kHostileNames[(i + 7) % kHostileNames.size()];
+  }
+  const std::string html = FormatReportHtml(data);
+  const std::string md = FormatReportMarkdown(data);
+  const std::string json = FormatReportJson(data);
+  WriteWhole((dir / "summary.json").string(), json);
+
+  CheckResult check;
+  for (const std::string& name : kHostileNames) {
+    check.names.push_back(name);
+    check.findings.push_back({FindingKind::kStale, name, "message " + name, {name, 3, 4}});
+  }
+  WriteWhole((dir / "junit.xml").string(), FormatJUnitReport(check, "suite " + kHostileNames[0]));
+
+  std::vector<TableRow> rows;
+  for (const std::string& name : kHostileNames) rows.push_back({name, 1.0e5, ThermoPoint{}});
+  for (TableRow& row : rows) row.point.t_k = 300.0;
+  const std::string table_json = FormatTable(rows, TableFormat::kJson);
+  WriteWhole((dir / "table.json").string(), table_json);
+
+  // Well-formed for a strict parser. Every <svg> of the page is XML too.
+  const std::vector<std::string> svgs = SvgElements(html);
+  REQUIRE_FALSE(svgs.empty());
+  WriteWhole((dir / "plot.svg").string(), svgs.front());
+  const auto json_ok = PythonAccepts(kParseJson, (dir / "summary.json").string());
+  if (!json_ok) {
+    WARN("python3 not installed: the parser checks are skipped");
+  } else {
+    CHECK(*json_ok);
+    CHECK(*PythonAccepts(kParseJson, (dir / "table.json").string()));
+    CHECK(*PythonAccepts(kParseXml, (dir / "junit.xml").string()));
+    CHECK(*PythonAccepts(kParseXml, (dir / "plot.svg").string()));
+    // The check can fail: a raw name in XML is refused by the same parser.
+    WriteWhole((dir / "raw.xml").string(), "<a name=\"" + kHostileNames[0] + "\"/>");
+    CHECK_FALSE(*PythonAccepts(kParseXml, (dir / "raw.xml").string()));
+  }
+
+  // No document carries a raw control character (tab and line feed aside), raw markup of a name,
+  // or invalid UTF-8.
+  const auto has_raw_control = [](const std::string& text) {
+    return std::any_of(text.begin(), text.end(), [](char c) {
+      const auto byte = static_cast<unsigned char>(c);
+      return (byte < 0x20 && c != '\n' && c != '\t') || byte == 0x7f;
+    });
+  };
+  const std::string csv = FormatTable(rows, TableFormat::kCsv);
+  const std::string text = FormatTable(rows, TableFormat::kText);
+  for (const std::string* document : {&html, &md, &json, &table_json, &csv, &text}) {
+    CHECK_FALSE(has_raw_control(*document));
+    CHECK(ValidUtf8(*document) == *document);
+    CHECK(document->find("\u202e") == std::string::npos);
+  }
+  CHECK(html.find("<script>") == std::string::npos);
+  CHECK_THAT(html, Catch::Contains("&lt;script&gt;alert(1)&lt;/script&gt;"));
+  CHECK(md.find("<script>") == std::string::npos);
+  CHECK_THAT(md, Catch::Contains("\\<script\\>alert\\(1\\)\\<\\/script\\>"));
+  CHECK_THAT(md, Catch::Contains("\\\\x1b\\[31mred\\\\x1b\\[0m"));
+  CHECK_THAT(md, Catch::Contains("\\| \\*bold\\* \\_em\\_ \\`code\\` \\[link\\]\\(x\\) \\# \\\\"));
+  CHECK_THAT(text, Catch::Contains("\\x1b[31mred\\x1b[0m"));
+  // CSV: formulas neutralised, quotes doubled, fields with commas, quotes or breaks quoted.
+  CHECK_THAT(csv, Catch::Contains("\n\"'=HYPERLINK(\"\"x\"\")\",300,"));
+  CHECK_THAT(csv, Catch::Contains("\n'+1-1@a,300,"));
+  CHECK_THAT(csv, Catch::Contains("\ntwo\\x0alines\\x0d\\x0a,300,"));
+  fs::remove_all(dir);
+}
+
+TEST_CASE("the report says when a fit is at the form's limit or a better fit exists", "[report]") {
+  // The fit records the form's limit (fit/quality.h); the report copies it from the entry.
+  EntriesFile entries = WithSpoiledEntry(Fitted().entries, "H2O");
+  for (Entry& entry : entries.entries) {
+    if (entry.name == "CO2") {
+      entry.quality.form_limit.computed = true;
+      entry.quality.form_limit.best_threshold_ratio = 1.37;
+      entry.quality.form_limit.passing_range_found = true;
+      entry.quality.form_limit.passing_t_low_k = 300.0;
+      entry.quality.form_limit.passing_t_high_k = 4000.0;
+    }
+    if (entry.name == "H2O") {
+      entry.quality.form_limit.computed = true;
+      entry.quality.form_limit.best_threshold_ratio = 0.62;
+    }
+  }
+  const ReportData data = Analyse(entries, nullptr, 1);
+  const std::string html = FormatReportHtml(data);
+  const std::string md = FormatReportMarkdown(data);
+  const std::string json = FormatReportJson(data);
+  CHECK_THAT(html,
+             Catch::Contains("at the form&#39;s limit: the best 7-coefficient fit over this range "
+                             "reaches 1.37 of its thresholds; the widest range that passes is "
+                             "300 K to 4000 K"));
+  CHECK_THAT(html,
+             Catch::Contains("a better fit of the form exists: the best 7-coefficient fit over "
+                             "this range reaches 0.62 of its thresholds"));
+  CHECK_THAT(md, Catch::Contains("| CO2 | **FAIL** (form's limit, best 1.37 of thr.) |"));
+  CHECK_THAT(md, Catch::Contains("| H2O | **FAIL** (a better fit exists) |"));
+  CHECK_THAT(json,
+             Catch::Contains("\"form_limit\": {\"at_limit\": true, \"best_threshold_ratio\": 1.37, "
+                             "\"passing_range_k\": [300, 4000]"));
+  CHECK_THAT(json, Catch::Contains("\"form_limit\": {\"at_limit\": false, \"best_threshold_ratio\": 0.62, "
+                                   "\"passing_range_k\": null"));
+  CHECK_THAT(json, Catch::Contains("\"form_limit\": null"));  // N2, Ar: not computed
+  // Exactly at 1 the thresholds are reachable: not at the limit.
+  FormLimit boundary;
+  boundary.computed = true;
+  boundary.best_threshold_ratio = 1.0;
+  CHECK_THAT(FormLimitText(boundary), Catch::StartsWith("a better fit of the form exists"));
+  CHECK(FormLimitText(FormLimit{}).empty());
+}
+
+TEST_CASE("every report document carries the caution", "[report]") {
+  // DESIGN: results are model estimates; check against evaluated data; defer to local codes
+  // and licensed engineering practice for safety decisions.
+  const ReportData data = Analyse(Fitted().entries, nullptr, 1);
+  CHECK_THAT(std::string(kReportCaution), Catch::Contains("model estimates") &&
+                                              Catch::Contains("evaluated data") &&
+                                              Catch::Contains("local codes") &&
+                                              Catch::Contains("licensed engineering practice"));
+  CHECK_THAT(FormatReportHtml(data), Catch::Contains(kReportCaution));
+  CHECK_THAT(FormatReportMarkdown(data), Catch::Contains(kReportCaution));
+  CHECK_THAT(FormatReportJson(data), Catch::Contains(kReportCaution));
 }

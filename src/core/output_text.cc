@@ -153,7 +153,7 @@ std::string JsonString(std::string_view text) {
       case '\t': out += "\\t"; return;
       default: break;
     }
-    if (c < 0x20 || (c >= 0x7F && c <= 0x9F) || c == 0x2028 || c == 0x2029) {
+    if (IsControlCodePoint(c, false) || c == 0x2028 || c == 0x2029) {
       out += fmt::format("\\u{:04x}", static_cast<unsigned>(c));
     } else {
       AppendUtf8(out, c);

@@ -31,8 +31,9 @@ std::string VisibleControls(std::string_view text, bool keep_lines = true);
 std::string EscapeMarkup(std::string_view text);
 
 // A JSON string literal, quotes included (RFC 8259): valid UTF-8 (U+FFFD for invalid bytes),
-// with ", \ and every code point below U+0020 escaped, and DEL, C1 controls, U+2028 and U+2029
-// as \u escapes too, so the literal is also safe to paste into JavaScript or a terminal.
+// with ", \ and every code point below U+0020 escaped, and the other control code points
+// (IsControlCodePoint: DEL, C1, bidirectional formatting), U+2028 and U+2029 as \u escapes too,
+// so the literal is also safe to paste into JavaScript or to print on a terminal.
 std::string JsonString(std::string_view text);
 
 }  // namespace sevenfold
