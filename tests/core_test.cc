@@ -19,6 +19,7 @@
 #include "core/elements.h"
 #include "core/error.h"
 #include "core/output_text.h"
+#include "core/parallel.h"
 #include "core/units.h"
 
 namespace sevenfold {
@@ -354,6 +355,17 @@ TEST_CASE("an output that is the same file as an input is refused", "[core]") {
   CHECK_THROWS(RefuseOutputThatIsAnInput(folder.File("out.entries"), {}, folder.File("out.entries")));
   CHECK_NOTHROW(RefuseOutputThatIsAnInput(folder.File("out.entries"), inputs));
   CHECK_NOTHROW(RefuseOutputThatIsAnInput(folder.File("missing.entries"), inputs));
+}
+
+}  // namespace sevenfold
+
+namespace sevenfold {
+
+TEST_CASE("errors stored per item are joined in item order and thrown once", "[core]") {
+  CHECK_NOTHROW(ThrowJoinedErrors({"", "", ""}));
+  CHECK_NOTHROW(ThrowJoinedErrors({}));
+  CHECK_THROWS_WITH(ThrowJoinedErrors({"", "b.yaml:2:1: second", "", "a.yaml:9:1: fourth"}),
+                    "b.yaml:2:1: second\na.yaml:9:1: fourth");
 }
 
 }  // namespace sevenfold

@@ -341,13 +341,7 @@ ReportData AnalyseReport(const ReportInput& input, const ReportOptions& options)
       },
       options.progress);
 
-  std::string message;
-  for (const std::string& error : errors) {
-    if (error.empty()) continue;
-    if (!message.empty()) message += "\n";
-    message += error;
-  }
-  if (!message.empty()) throw Error(message);
+  ThrowJoinedErrors(errors);
 
   // Worst first; the index keeps the order total, so the output never depends on the sort's
   // treatment of equal keys.
