@@ -2,7 +2,7 @@
 // The Markdown and JSON documents of the report.
 #include <fmt/format.h>
 
-#include <cctype>
+#include <string_view>
 #include <cmath>
 
 #include "core/output_text.h"
@@ -32,15 +32,17 @@ std::string Verdict(const EntryAssessment& a) {
   return verdict;
 }
 
-// Markdown table cells: names are shown literally. Every ASCII punctuation character is
-// backslash-escaped (CommonMark allows that for all of them, so no emphasis, link, code span,
-// HTML tag, entity or cell break can start), line breaks become spaces, and control characters
-// are written visibly.
+// Markdown table cells: names are shown literally. A cell holds inline content only, so what
+// must not act is inline syntax: code spans, emphasis and strike-through, links and images,
+// HTML tags and entities, math, autolinks and the cell separator. Those characters are
+// backslash-escaped (CommonMark allows it for any ASCII punctuation); line breaks become spaces
+// and control characters are written visibly. Other punctuation stays as it is, so that names
+// such as H2-cryo remain readable in a log.
 std::string MarkdownCell(const std::string& text) {
+  static constexpr std::string_view kInlineSyntax = "\\`*_[]<>!&|~$:";
   std::string out;
   for (const char c : VisibleControls(text, false)) {
-    const auto byte = static_cast<unsigned char>(c);
-    if (byte < 0x80 && std::ispunct(byte)) out += '\\';
+    if (kInlineSyntax.find(c) != std::string_view::npos) out += '\\';
     out += c;
   }
   return out;
