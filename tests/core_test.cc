@@ -2,7 +2,9 @@
 // Tests of the core helpers: quantities with units, atomic weights, SHA-256, output files and
 // output text.
 #include <fcntl.h>
+#include <signal.h>
 #include <sys/stat.h>
+#include <sys/wait.h>
 #include <unistd.h>
 
 #include <catch2/catch.hpp>
@@ -366,6 +368,44 @@ TEST_CASE("errors stored per item are joined in item order and thrown once", "[c
   CHECK_NOTHROW(ThrowJoinedErrors({}));
   CHECK_THROWS_WITH(ThrowJoinedErrors({"", "b.yaml:2:1: second", "", "a.yaml:9:1: fourth"}),
                     "b.yaml:2:1: second\na.yaml:9:1: fourth");
+}
+
+}  // namespace sevenfold
+
+namespace sevenfold {
+
+TEST_CASE("SIGINT while fit waits to write its output ends it with 130, writing nothing", "[core]") {
+  // The output is a FIFO without a reader: fit computes, then blocks opening it (the kernel's
+  // wait_for_partner), the place where the output would be written. SIGINT must end it with
+  // 128 + 2 and leave nothing beside the FIFO (src/cli/interrupt.cc).
+  ScratchFolder folder;
+  const std::string fifo = folder.File("out.entries");
+  REQUIRE(mkfifo(fifo.c_str(), 0600) == 0);
+  const pid_t pid = fork();
+  REQUIRE(pid >= 0);
+  if (pid == 0) {
+    const int null_fd = open("/dev/null", O_RDWR);
+    dup2(null_fd, 0);
+    dup2(null_fd, 1);
+    dup2(null_fd, 2);
+    if (chdir(SEVENFOLD_SOURCE_DIR) != 0) _exit(99);
+    execl(SEVENFOLD_BINARY, SEVENFOLD_BINARY, "fit", "-q", "--allow-poor-fits", "--mid", "1000",
+          "tests/data/reference-species.yaml", "-o", fifo.c_str(), static_cast<char*>(nullptr));
+    _exit(98);
+  }
+  const std::string wchan = "/proc/" + std::to_string(pid) + "/wchan";
+  bool blocked = false;
+  for (int i = 0; i < 1200 && !blocked; ++i) {  // up to 60 s on a busy machine
+    blocked = Slurp(wchan).find("partner") != std::string::npos;
+    if (!blocked) usleep(50000);
+  }
+  kill(pid, SIGINT);
+  int raw = 0;
+  REQUIRE(waitpid(pid, &raw, 0) == pid);
+  CHECK(blocked);
+  REQUIRE(WIFEXITED(raw));
+  CHECK(WEXITSTATUS(raw) == 130);
+  CHECK(folder.Listing() == std::set<std::string>{"out.entries"});
 }
 
 }  // namespace sevenfold
