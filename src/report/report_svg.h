@@ -83,9 +83,10 @@ struct PlotSpec {
   bool zero_line = false;  // a thin line at y = 0
 };
 
-// The complete <svg> element for `spec`. Every number in it is finite and written with a fixed
-// number of decimals. Aborts (SEVENFOLD_ASSERT) on an empty or inverted axis range, or a
-// non-positive log-axis bound: the caller builds the ranges.
+// The complete <svg> element for `spec`. Every number in it is finite, coordinates are in tenths
+// of a pixel; each series is one <path> (class = its css_class) clipped to the plot area and
+// decimated to within a quarter pixel. Aborts (SEVENFOLD_ASSERT) on an empty or inverted axis
+// range, or a non-positive log-axis bound: the caller builds the ranges.
 std::string RenderPlot(const PlotSpec& spec);
 
 // Round tick values inside [min, max]: for a linear axis multiples of 1, 2 or 5 times a power
