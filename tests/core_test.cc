@@ -1,5 +1,12 @@
 // SPDX-License-Identifier: MIT
-// Tests of the core helpers: quantities with units, atomic weights, SHA-256.
+// Tests of the core helpers: quantities with units, atomic weights, SHA-256, output files and
+// output text.
+#include <fcntl.h>
+#include <signal.h>
+#include <sys/stat.h>
+#include <sys/wait.h>
+#include <unistd.h>
+
 #include <catch2/catch.hpp>
 #include <cmath>
 #include <filesystem>
@@ -8,11 +15,14 @@
 #include <sstream>
 #include <string>
 
+#include "core/atomic_file.h"
 #include "core/constants.h"
 #include "core/digest.h"
 #include "core/elements.h"
 #include "core/error.h"
 #include "core/read_file.h"
+#include "core/output_text.h"
+#include "core/parallel.h"
 #include "core/units.h"
 #include "core/utf8.h"
 
@@ -246,3 +256,230 @@ TEST_CASE("input files are read whole up to the 16 MiB cap", "[core]") {
                                                  "directory; expected a readable file");
   fs::remove_all(dir);
 }
+namespace sevenfold {
+namespace {
+
+namespace fs = std::filesystem;
+
+// A fresh folder under the system temporary directory, removed at the end of the test.
+struct ScratchFolder {
+  ScratchFolder() {
+    static int counter = 0;
+    path = fs::temp_directory_path() /
+           ("sevenfold_core_" + std::to_string(getpid()) + "_" + std::to_string(++counter));
+    fs::remove_all(path);
+    fs::create_directories(path);
+  }
+  ~ScratchFolder() { fs::remove_all(path); }
+  std::string File(const std::string& name) const { return (path / name).string(); }
+  std::set<std::string> Listing() const {
+    std::set<std::string> names;
+    for (const auto& entry : fs::directory_iterator(path)) {
+      names.insert(entry.path().filename().string());
+    }
+    return names;
+  }
+  fs::path path;
+};
+
+std::string Slurp(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  std::stringstream buffer;
+  buffer << in.rdbuf();
+  return buffer.str();
+}
+
+void Put(const std::string& path, const std::string& text) {
+  std::ofstream out(path, std::ios::binary);
+  out << text;
+}
+
+mode_t ModeOf(const std::string& path) {
+  struct stat info;
+  REQUIRE(stat(path.c_str(), &info) == 0);
+  return info.st_mode & 07777;
+}
+
+}  // namespace
+
+TEST_CASE("a new output file honours the umask, a replaced one keeps its mode but no set-id bits",
+          "[core]") {
+  ScratchFolder folder;
+  const mode_t old_mask = umask(027);
+  WriteFileAtomically(folder.File("new.txt"), "new\n");
+  umask(old_mask);
+  CHECK(ModeOf(folder.File("new.txt")) == 0640);
+
+  Put(folder.File("kept.txt"), "old\n");
+  REQUIRE(chmod(folder.File("kept.txt").c_str(), 06751) == 0);
+  const bool root = geteuid() == 0;
+  if (root) REQUIRE(chown(folder.File("kept.txt").c_str(), 1234, 5678) == 0);
+  WriteFileAtomically(folder.File("kept.txt"), "new\n");
+  CHECK(Slurp(folder.File("kept.txt")) == "new\n");
+  CHECK(ModeOf(folder.File("kept.txt")) == 0751);
+  if (root) {
+    struct stat info;
+    REQUIRE(stat(folder.File("kept.txt").c_str(), &info) == 0);
+    CHECK(info.st_uid == 1234u);
+    CHECK(info.st_gid == 5678u);
+  } else {
+    WARN("not root: the owner and group check needs chown");
+  }
+  CHECK(folder.Listing() == std::set<std::string>{"new.txt", "kept.txt"});
+}
+
+TEST_CASE("outputs that are not regular files are written in place or refused, never replaced",
+          "[core]") {
+  ScratchFolder folder;
+  // A character device: written in place, still a device afterwards.
+  WriteFileAtomically("/dev/null", "discarded\n");
+  struct stat info;
+  REQUIRE(stat("/dev/null", &info) == 0);
+  CHECK(S_ISCHR(info.st_mode));
+
+  // A FIFO with a reader: the bytes arrive through it, and it stays a FIFO.
+  const std::string fifo = folder.File("fifo");
+  REQUIRE(mkfifo(fifo.c_str(), 0600) == 0);
+  const int reader = open(fifo.c_str(), O_RDONLY | O_NONBLOCK);
+  REQUIRE(reader >= 0);
+  WriteFileAtomically(fifo, "through the pipe\n");
+  char buffer[64] = {};
+  CHECK(read(reader, buffer, sizeof buffer - 1) == 17);
+  CHECK(std::string(buffer) == "through the pipe\n");
+  close(reader);
+  REQUIRE(lstat(fifo.c_str(), &info) == 0);
+  CHECK(S_ISFIFO(info.st_mode));
+
+  // A link to a regular file stays a link; its target gets the content.
+  Put(folder.File("target.txt"), "old\n");
+  fs::create_symlink(folder.File("target.txt"), folder.File("link.txt"));
+  WriteFileAtomically(folder.File("link.txt"), "new\n");
+  CHECK(fs::is_symlink(folder.File("link.txt")));
+  CHECK(Slurp(folder.File("target.txt")) == "new\n");
+
+  // A folder and a link to nothing are refused, and nothing is left behind.
+  fs::create_directory(folder.File("folder"));
+  CHECK_THROWS_WITH(WriteFileAtomically(folder.File("folder"), "x"),
+                    Catch::Contains("folder: cannot replace: Is a directory"));
+  fs::create_symlink(folder.File("missing"), folder.File("dangling"));
+  CHECK_THROWS_WITH(WriteFileAtomically(folder.File("dangling"), "x"),
+                    Catch::Contains("dangling: is a symbolic link to nothing"));
+  CHECK(fs::is_symlink(folder.File("dangling")));
+  CHECK(folder.Listing() ==
+        std::set<std::string>{"fifo", "target.txt", "link.txt", "folder", "dangling"});
+}
+
+TEST_CASE("an output whose name is at the file system's limit gets a temporary that fits",
+          "[core]") {
+  ScratchFolder folder;
+  const long name_max = pathconf(folder.path.c_str(), _PC_NAME_MAX);
+  REQUIRE(name_max > 20);
+  const std::string name = std::string(static_cast<size_t>(name_max) - 4, 'x') + ".txt";
+  WriteFileAtomically(folder.File(name), "long\n");
+  CHECK(Slurp(folder.File(name)) == "long\n");
+  CHECK(folder.Listing() == std::set<std::string>{name});
+}
+
+TEST_CASE("a batch is all or nothing: a failure before the commit leaves every old file",
+          "[core]") {
+  ScratchFolder folder;
+  Put(folder.File("a.txt"), "old a\n");
+  Put(folder.File("b.txt"), "old b\n");
+  fs::create_directory(folder.File("c"));
+  {
+    OutputBatch batch;
+    batch.Add(folder.File("a.txt"), "new a\n");
+    batch.Add(folder.File("b.txt"), "new b\n");
+    CHECK(folder.Listing().size() == 5);  // two temporaries beside the old files
+    CHECK_THROWS_WITH(batch.Add(folder.File("c"), "new c\n"), Catch::Contains("cannot replace"));
+  }
+  CHECK(Slurp(folder.File("a.txt")) == "old a\n");
+  CHECK(Slurp(folder.File("b.txt")) == "old b\n");
+  CHECK(folder.Listing() == std::set<std::string>{"a.txt", "b.txt", "c"});
+
+  OutputBatch batch;
+  batch.Add(folder.File("a.txt"), "new a\n");
+  batch.Add(folder.File("b.txt"), "new b\n");
+  batch.Commit();
+  CHECK(Slurp(folder.File("a.txt")) == "new a\n");
+  CHECK(Slurp(folder.File("b.txt")) == "new b\n");
+  CHECK(folder.Listing() == std::set<std::string>{"a.txt", "b.txt", "c"});
+}
+
+TEST_CASE("pending temporaries are removed on request (as the signal handler does)", "[core]") {
+  ScratchFolder folder;
+  Put(folder.File("a.txt"), "old a\n");
+  OutputBatch batch;
+  batch.Add(folder.File("a.txt"), "new a\n");
+  CHECK(folder.Listing().size() == 2);
+  RemovePendingTemporaries();
+  CHECK(folder.Listing() == std::set<std::string>{"a.txt"});
+  CHECK(Slurp(folder.File("a.txt")) == "old a\n");
+}
+
+TEST_CASE("an output that is the same file as an input is refused", "[core]") {
+  ScratchFolder folder;
+  Put(folder.File("species.yaml"), "species: []\n");
+  REQUIRE(link(folder.File("species.yaml").c_str(), folder.File("hard-link.yaml").c_str()) == 0);
+  fs::create_symlink(folder.File("species.yaml"), folder.File("soft-link.yaml"));
+  const std::vector<std::string> inputs = {folder.File("other.yaml"), folder.File("species.yaml")};
+  CHECK_THROWS_WITH(RefuseOutputThatIsAnInput(folder.File("hard-link.yaml"), inputs),
+                    Catch::Contains("hard-link.yaml: is the same file as the input") &&
+                        Catch::Contains("species.yaml"));
+  CHECK_THROWS(RefuseOutputThatIsAnInput(folder.File("soft-link.yaml"), inputs));
+  Put(folder.File("out.entries"), "x\n");
+  CHECK_THROWS(RefuseOutputThatIsAnInput(folder.File("out.entries"), {}, folder.File("out.entries")));
+  CHECK_NOTHROW(RefuseOutputThatIsAnInput(folder.File("out.entries"), inputs));
+  CHECK_NOTHROW(RefuseOutputThatIsAnInput(folder.File("missing.entries"), inputs));
+}
+
+}  // namespace sevenfold
+
+namespace sevenfold {
+
+TEST_CASE("errors stored per item are joined in item order and thrown once", "[core]") {
+  CHECK_NOTHROW(ThrowJoinedErrors({"", "", ""}));
+  CHECK_NOTHROW(ThrowJoinedErrors({}));
+  CHECK_THROWS_WITH(ThrowJoinedErrors({"", "b.yaml:2:1: second", "", "a.yaml:9:1: fourth"}),
+                    "b.yaml:2:1: second\na.yaml:9:1: fourth");
+}
+
+}  // namespace sevenfold
+
+namespace sevenfold {
+
+TEST_CASE("SIGINT while fit waits to write its output ends it with 130, writing nothing", "[core]") {
+  // The output is a FIFO without a reader: fit computes, then blocks opening it (the kernel's
+  // wait_for_partner), the place where the output would be written. SIGINT must end it with
+  // 128 + 2 and leave nothing beside the FIFO (src/cli/interrupt.cc).
+  ScratchFolder folder;
+  const std::string fifo = folder.File("out.entries");
+  REQUIRE(mkfifo(fifo.c_str(), 0600) == 0);
+  const pid_t pid = fork();
+  REQUIRE(pid >= 0);
+  if (pid == 0) {
+    const int null_fd = open("/dev/null", O_RDWR);
+    dup2(null_fd, 0);
+    dup2(null_fd, 1);
+    dup2(null_fd, 2);
+    if (chdir(SEVENFOLD_SOURCE_DIR) != 0) _exit(99);
+    execl(SEVENFOLD_BINARY, SEVENFOLD_BINARY, "fit", "-q", "--allow-poor-fits", "--mid", "1000",
+          "tests/data/reference-species.yaml", "-o", fifo.c_str(), static_cast<char*>(nullptr));
+    _exit(98);
+  }
+  const std::string wchan = "/proc/" + std::to_string(pid) + "/wchan";
+  bool blocked = false;
+  for (int i = 0; i < 1200 && !blocked; ++i) {  // up to 60 s on a busy machine
+    blocked = Slurp(wchan).find("partner") != std::string::npos;
+    if (!blocked) usleep(50000);
+  }
+  kill(pid, SIGINT);
+  int raw = 0;
+  REQUIRE(waitpid(pid, &raw, 0) == pid);
+  CHECK(blocked);
+  REQUIRE(WIFEXITED(raw));
+  CHECK(WEXITSTATUS(raw) == 130);
+  CHECK(folder.Listing() == std::set<std::string>{"out.entries"});
+}
+
+}  // namespace sevenfold

@@ -9,6 +9,7 @@
 #include "cli/common.h"
 #include "cli/progress.h"
 #include "core/atomic_file.h"
+#include "core/output_text.h"
 #include "entries/entries.h"
 #include "mechanism/check.h"
 #include "mechanism/regenerate.h"
@@ -38,6 +39,7 @@ void SetupCheckCommand(CLI::App& app, int& exit_status) {
 }
 
 int RunCheckCommand(const CheckCommandOptions& options) {
+  RefuseOutputThatIsAnInput(options.junit_path, options.species_files, options.entries_path);
   // Read both inputs before the long part, so a malformed file fails fast.
   const std::vector<Species> species = LoadSpecies(options.species_files, {}, options.num_jobs);
   const EntriesFile committed = ReadEntriesFile(options.entries_path);
@@ -51,14 +53,17 @@ int RunCheckCommand(const CheckCommandOptions& options) {
   progress.Finish();
 
   const CheckResult result = CheckEntries(results, committed, regenerate);
-  if (!options.junit_path.empty()) {
-    WriteFileAtomically(options.junit_path,
-                        FormatJUnitReport(result, "sevenfold check " + options.entries_path));
-  }
   for (const Finding& finding : result.findings) {
     const std::string where = finding.location.ToString();
-    std::cout << fmt::format("{}{}: {}: {}\n", where.empty() ? "" : where + ": ", finding.species,
-                             ToString(finding.kind), finding.message);
+    std::cout << VisibleControls(fmt::format("{}{}: {}: {}", where.empty() ? "" : where + ": ",
+                                             finding.species, ToString(finding.kind),
+                                             finding.message), false)
+              << "\n";
+  }
+  if (!options.junit_path.empty()) {
+    // After the findings, so that a JUnit file that cannot be written hides none of them.
+    WriteFileAtomically(options.junit_path,
+                        FormatJUnitReport(result, "sevenfold check " + options.entries_path));
   }
   if (result.Passed()) {
     std::cout << fmt::format("check: {} species, {} entries in {}: all match\n",

@@ -40,6 +40,7 @@ void SetupFitCommand(CLI::App& app, int& exit_status) {
 }
 
 int RunFitCommand(const FitCommandOptions& options) {
+  RefuseOutputThatIsAnInput(options.output_path, options.species_files);
   const std::vector<Species> species =
       LoadSpecies(options.species_files, options.species_names, options.num_jobs);
   RegenerateOptions regenerate = MakeRegenerateOptions(options.mid, options.objective, options.extrapolation_guard,

@@ -9,11 +9,14 @@
 #include "cli/check_command.h"
 #include "cli/eval_command.h"
 #include "cli/fit_command.h"
+#include "cli/interrupt.h"
 #include "cli/report_command.h"
 #include "cli/table_command.h"
 #include "core/error.h"
+#include "core/output_text.h"
 
 int main(int argc, char** argv) {
+  sevenfold::cli::InstallInterruptCleanup();
   CLI::App app{
       "sevenfold: exact ideal-gas thermochemistry from molecular constants, and two-range "
       "NASA 7-coefficient polynomials fitted to it"};
@@ -35,10 +38,10 @@ int main(int argc, char** argv) {
     std::cerr << "error: " << e.what() << "\n(run with --help or --help-all for the options)\n";
     return 2;
   } catch (const sevenfold::Error& e) {
-    std::cerr << "error: " << e.what() << "\n";
+    std::cerr << "error: " << sevenfold::VisibleControls(e.what()) << "\n";
     return 2;
   } catch (const std::exception& e) {
-    std::cerr << "internal error: " << e.what() << "\n";
+    std::cerr << "internal error: " << sevenfold::VisibleControls(e.what()) << "\n";
     return 70;
   }
   return exit_status;

@@ -6,6 +6,8 @@
 #include <thread>
 #include <vector>
 
+#include "core/error.h"
+
 namespace sevenfold {
 
 void ParallelFor(int count, int num_jobs, const std::function<void(int)>& body,
@@ -25,6 +27,16 @@ void ParallelFor(int count, int num_jobs, const std::function<void(int)>& body,
   for (int t = 1; t < num_threads; ++t) threads.emplace_back(work);
   work();
   for (std::thread& thread : threads) thread.join();
+}
+
+void ThrowJoinedErrors(const std::vector<std::string>& errors) {
+  std::string message;
+  for (const std::string& error : errors) {
+    if (error.empty()) continue;
+    if (!message.empty()) message += "\n";
+    message += error;
+  }
+  if (!message.empty()) throw Error(message);
 }
 
 }  // namespace sevenfold

@@ -4,6 +4,8 @@
 #pragma once
 
 #include <functional>
+#include <string>
+#include <vector>
 
 namespace sevenfold {
 
@@ -12,5 +14,10 @@ namespace sevenfold {
 // from the worker thread when given. body must not throw: catch per item and store the error.
 void ParallelFor(int count, int num_jobs, const std::function<void(int)>& body,
                  const std::function<void(int, int)>& progress = {});
+
+// The usual end of a ParallelFor whose body stored one error text per item ("" for none): throws
+// Error with the non-empty texts joined by newlines, in item order (so the message does not
+// depend on scheduling); returns when there is none.
+void ThrowJoinedErrors(const std::vector<std::string>& errors);
 
 }  // namespace sevenfold

@@ -12,6 +12,7 @@
 #include <fmt/format.h>
 
 #include "core/constants.h"
+#include "core/output_text.h"
 
 namespace sevenfold {
 
@@ -466,30 +467,15 @@ CheckResult CheckEntries(const std::vector<SpeciesFit>& regenerated, const Entri
 
 namespace {
 
-// Escapes text for XML 1.0 content or a double-quoted attribute. Control characters that XML 1.0
-// cannot carry at all become the visible text "\xNN"; tab, LF and CR become character references
-// so that attribute-value normalisation keeps them.
+// Escapes text for XML 1.0 content or a quoted attribute (core/output_text.h): control
+// characters XML 1.0 cannot carry become visible "\xNN", invalid UTF-8 becomes U+FFFD, tab, LF
+// and CR become character references.
+// XML's own &apos; for the apostrophe (EscapeMarkup writes &#39;, which HTML 4 also knows; its
+// output holds "&#39;" only where the text had an apostrophe, since '&' itself is escaped).
 std::string XmlEscape(const std::string& text) {
-  std::string out;
-  out.reserve(text.size());
-  for (const char c : text) {
-    const auto byte = static_cast<unsigned char>(c);
-    switch (c) {
-      case '&': out += "&amp;"; break;
-      case '<': out += "&lt;"; break;
-      case '>': out += "&gt;"; break;
-      case '"': out += "&quot;"; break;
-      case '\'': out += "&apos;"; break;
-      case '\t': out += "&#9;"; break;
-      case '\n': out += "&#10;"; break;
-      case '\r': out += "&#13;"; break;
-      default:
-        if (byte < 0x20) {
-          out += fmt::format("\\x{:02x}", byte);
-        } else {
-          out += c;
-        }
-    }
+  std::string out = EscapeMarkup(text);
+  for (size_t at = out.find("&#39;"); at != std::string::npos; at = out.find("&#39;", at)) {
+    out.replace(at, 5, "&apos;");
   }
   return out;
 }

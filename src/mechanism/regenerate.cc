@@ -162,13 +162,7 @@ std::vector<SpeciesFit> FitAllSpecies(const std::vector<Species>& species,
     }
     return good;
   }
-  std::string message;
-  for (const std::string& error : errors) {
-    if (error.empty()) continue;
-    if (!message.empty()) message += "\n";
-    message += error;
-  }
-  if (!message.empty()) throw Error(message);
+  ThrowJoinedErrors(errors);
   return results;
 }
 

@@ -195,6 +195,27 @@ SpeciesReport AnalyseSpecies(const ReportSpeciesInput& in, const ReportOptions& 
 
 }  // namespace
 
+std::string FormLimitText(const FormLimit& limit) {
+  if (!limit.computed) return "";
+  const std::string range =
+      limit.passing_range_found
+          ? fmt::format("the widest range that passes is {} K to {} K",
+                        FormatNumber(limit.passing_t_low_k),
+                        FormatNumber(limit.passing_t_high_k))
+          : std::string("no range tried passes");
+  if (limit.AtFormLimit()) {
+    return fmt::format(
+        "at the form's limit: the best 7-coefficient fit over this range reaches {:.2f} of its "
+        "thresholds; {}",
+        limit.best_threshold_ratio,
+        range);
+  }
+  return fmt::format(
+      "a better fit of the form exists: the best 7-coefficient fit over this range reaches {:.2f} "
+      "of its thresholds",
+      limit.best_threshold_ratio);
+}
+
 int ReportData::NumFailing() const {
   return static_cast<int>(std::count_if(species.begin(), species.end(), [](const SpeciesReport& s) {
     return !s.fit.quality.MeetsThresholds();
@@ -242,6 +263,7 @@ EntryAssessment AssessEntryWith(const SpeciesThermo& thermo,
     ConsiderWorst(a.worst, "s", name, q->max_s_over_r, thr.max_s_over_r, q->max_s_error_t_k);
   }
   a.max_normalised_error = a.worst.normalised;
+  a.quality.form_limit = entry.quality.form_limit;
   // The same sane band as the fitter's (fit/fitter.cc): classical limit of the species' atoms.
   a.quality.extrapolation =
       CheckExtrapolation(p, ClassicalLimitCpOverR(species.NumAtoms()) + kExtrapolationUpperMargin);
@@ -319,13 +341,7 @@ ReportData AnalyseReport(const ReportInput& input, const ReportOptions& options)
       },
       options.progress);
 
-  std::string message;
-  for (const std::string& error : errors) {
-    if (error.empty()) continue;
-    if (!message.empty()) message += "\n";
-    message += error;
-  }
-  if (!message.empty()) throw Error(message);
+  ThrowJoinedErrors(errors);
 
   // Worst first; the index keeps the order total, so the output never depends on the sort's
   // treatment of equal keys.

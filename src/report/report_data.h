@@ -49,7 +49,9 @@ struct WorstFigure {
 // An entry measured against the exact curves on the fit grid of its own temperature range.
 struct EntryAssessment {
   TwoRangePolynomial polynomial;
-  FitQuality quality;  // threshold_failures as ThresholdFailures (fit/fitter.h)
+  // threshold_failures as ThresholdFailures (fit/fitter.h); form_limit as recorded by the fit
+  // (it needs the fitter: the report does not recompute it).
+  FitQuality quality;
   double max_normalised_error = 0.0;            // largest figure / threshold over Cp, H, S
   WorstFigure worst;
 };
@@ -119,6 +121,11 @@ struct ReportOptions {
   // Called after each species, from a worker thread (must be thread-safe).
   std::function<void(int num_done, int num_total)> progress;
 };
+
+// What the report says about the form's limit (fit/quality.h FormLimit), "" when it was not
+// computed: "at the form's limit: ..." with the best achievable figure and the widest passing
+// range, or "a better fit of the form exists: ..." when the best reaches the thresholds.
+std::string FormLimitText(const FormLimit& limit);
 
 // Measures every entry against its species' exact curves and samples the plot curves.
 // Throws Error naming the species and its file when the exact model cannot be evaluated.

@@ -328,6 +328,9 @@ std::string SpeciesSection(const SpeciesReport& s, int rank) {
       Num(s.fit.quality.extrapolation.min_cp_over_r_above, 3),
       Num(s.fit.quality.extrapolation.max_cp_over_r_above, 3),
       s.fit.quality.extrapolation.sane ? "inside the sane band" : "<strong>outside the sane band</strong>");
+  if (const std::string limit = FormLimitText(s.fit.quality.form_limit); !limit.empty()) {
+    html += fmt::format("<dt>form's limit</dt><dd class=\"form-limit\">{}</dd>\n", EscapeXml(limit));
+  }
   if (!s.model.empty()) html += fmt::format("<dt>model</dt><dd>{}</dd>\n", EscapeXml(s.model));
   html += fmt::format("<dt>input digest</dt><dd><code>{}</code></dd>\n", EscapeXml(s.input_sha256));
   html += "</dl>\n";

@@ -2,8 +2,10 @@
 // The Markdown and JSON documents of the report.
 #include <fmt/format.h>
 
+#include <string_view>
 #include <cmath>
 
+#include "core/output_text.h"
 #include "report/report_document.h"
 
 namespace sevenfold {
@@ -18,58 +20,35 @@ std::string Fixed(double value, int decimals) {
 
 double MaxOf(double a, double b) { return a > b ? a : b; }
 
-// Markdown table cells: a '|' would end the cell, a newline the row; emphasis marks, code
-// ticks and HTML tags in a species name are shown literally.
+// The verdict cell, with what the form's limit says when the fit recorded it.
+std::string Verdict(const EntryAssessment& a) {
+  std::string verdict = a.quality.MeetsThresholds() ? "pass" : "**FAIL**";
+  if (a.quality.form_limit.AtFormLimit()) {
+    verdict += fmt::format(" (form's limit, best {:.2f} of thr.)",
+                           a.quality.form_limit.best_threshold_ratio);
+  } else if (a.quality.form_limit.computed) {
+    verdict += " (a better fit exists)";
+  }
+  return verdict;
+}
+
+// Markdown table cells: names are shown literally. A cell holds inline content only, so what
+// must not act is inline syntax: code spans, emphasis and strike-through, links and images,
+// HTML tags and entities, math, autolinks and the cell separator. Those characters are
+// backslash-escaped (CommonMark allows it for any ASCII punctuation); line breaks become spaces
+// and control characters are written visibly. Other punctuation stays as it is, so that names
+// such as H2-cryo remain readable in a log.
 std::string MarkdownCell(const std::string& text) {
+  static constexpr std::string_view kInlineSyntax = "\\`*_[]<>!&|~$:";
   std::string out;
-  for (const char c : text) {
-    if (c == '|' || c == '*' || c == '_' || c == '`' || c == '\\') {
-      out += '\\';
-      out += c;
-    } else if (c == '<') {
-      out += "&lt;";
-    } else if (c == '>') {
-      out += "&gt;";
-    } else if (c == '\n' || c == '\r') {
-      out += ' ';
-    } else {
-      out += c;
-    }
+  for (const char c : VisibleControls(text, false)) {
+    if (kInlineSyntax.find(c) != std::string_view::npos) out += '\\';
+    out += c;
   }
   return out;
 }
 
 // JSON ------------------------------------------------------------------------------------------
-
-std::string JsonString(const std::string& text) {
-  std::string out = "\"";
-  for (const char c : text) {
-    switch (c) {
-      case '"':
-        out += "\\\"";
-        break;
-      case '\\':
-        out += "\\\\";
-        break;
-      case '\n':
-        out += "\\n";
-        break;
-      case '\r':
-        out += "\\r";
-        break;
-      case '\t':
-        out += "\\t";
-        break;
-      default:
-        if (static_cast<unsigned char>(c) < 0x20) {
-          out += fmt::format("\\u{:04x}", static_cast<unsigned char>(c));
-        } else {
-          out += c;
-        }
-    }
-  }
-  return out + "\"";
-}
 
 // Shortest round-trip form; JSON has no NaN or infinity, so those become null.
 std::string JsonNumber(double value) {
@@ -136,6 +115,22 @@ std::string JsonAssessment(const EntryAssessment& a, const std::string& indent) 
   out += in + "  \"low\": " + JsonRange(a.quality.low_range, in + "  ") + ",\n";
   out += in + "  \"high\": " + JsonRange(a.quality.high_range, in + "  ") + "\n";
   out += in + "},\n";
+  const FormLimit& limit = a.quality.form_limit;
+  if (limit.computed) {
+    out += in + fmt::format(
+                    "\"form_limit\": {{\"at_limit\": {}, \"best_threshold_ratio\": {}, "
+                    "\"passing_range_k\": {}, \"text\": {}}},\n",
+                    limit.AtFormLimit() ? "true" : "false",
+                    JsonNumber(limit.best_threshold_ratio),
+                    limit.passing_range_found
+                        ? fmt::format("[{}, {}]",
+                                      JsonNumber(limit.passing_t_low_k),
+                                      JsonNumber(limit.passing_t_high_k))
+                        : std::string("null"),
+                    JsonString(FormLimitText(limit)));
+  } else {
+    out += in + "\"form_limit\": null,\n";
+  }
   const ExtrapolationCheck& e = a.quality.extrapolation;
   out += in + fmt::format(
                   "\"extrapolation\": {{\"sane\": {}, \"below\": {{\"min_cp_over_r\": {}, "
@@ -171,7 +166,7 @@ std::string FormatReportMarkdown(const ReportData& data) {
     md += fmt::format(
         "| {} | {} | {} | {} | {} | {} | {} |",
         MarkdownCell(s.name),
-        a.quality.MeetsThresholds() ? "pass" : "**FAIL**",
+        Verdict(a),
         Fixed(100.0 * MaxOf(a.quality.low_range.max_cp_relative, a.quality.high_range.max_cp_relative), 3),
         Fixed(MaxOf(a.quality.low_range.max_h_over_rt, a.quality.high_range.max_h_over_rt), 5),
         Fixed(MaxOf(a.quality.low_range.max_s_over_r, a.quality.high_range.max_s_over_r), 5),
@@ -192,7 +187,7 @@ std::string FormatReportMarkdown(const ReportData& data) {
     md += fmt::format(" {} fit(s) extrapolate outside the sane Cp band (see index.html).",
                       data.NumExtrapolationWarnings());
   }
-  md += fmt::format("\nsevenfold {}; {}\n", data.tool_version, kReportCaution);
+  md += fmt::format("\nsevenfold {}; {}\n", MarkdownCell(data.tool_version), kReportCaution);
   return md;
 }
 

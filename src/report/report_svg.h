@@ -1,9 +1,10 @@
 // SPDX-License-Identifier: MIT
 // A small, general SVG line-plot writer: axes with round ticks (linear or logarithmic), polylines
 // with dash patterns, horizontal bands, shaded and hatched vertical spans, marker lines and a
-// legend. Output is a string, deterministic (coordinates with two decimals, fixed formatting),
-// self-contained (no scripts, no references to anything outside the element) and clipped to the
-// plot area by the writer itself, so no SVG clip paths or patterns are needed.
+// legend. Output is a string, deterministic (coordinates in tenths of a pixel, fixed formatting),
+// self-contained (no scripts, no references to anything outside the element: the one hatch
+// pattern is defined inside it) and compact: curves are clipped to the plot area by the writer
+// itself and decimated to what a screen can show, as relative path data.
 #pragma once
 
 #include <string>
@@ -65,7 +66,9 @@ struct PlotMarker {
 };
 
 struct PlotSpec {
-  std::string id;         // id attribute of the <svg>; "" for none
+  // id attribute of the <svg>; "" for none. Give one when several plots share a page: the
+  // hatch pattern's id is derived from it.
+  std::string id;
   std::string css_class;  // class attribute of the <svg>
   std::vector<std::pair<std::string, std::string>> attributes;  // extra attributes, escaped here
   std::string title;                                            // written above the plot
@@ -80,9 +83,10 @@ struct PlotSpec {
   bool zero_line = false;  // a thin line at y = 0
 };
 
-// The complete <svg> element for `spec`. Every number in it is finite and written with a fixed
-// number of decimals. Aborts (SEVENFOLD_ASSERT) on an empty or inverted axis range, or a
-// non-positive log-axis bound: the caller builds the ranges.
+// The complete <svg> element for `spec`. Every number in it is finite, coordinates are in tenths
+// of a pixel; each series is one <path> (class = its css_class) clipped to the plot area and
+// decimated to within a quarter pixel. Aborts (SEVENFOLD_ASSERT) on an empty or inverted axis
+// range, or a non-positive log-axis bound: the caller builds the ranges.
 std::string RenderPlot(const PlotSpec& spec);
 
 // Round tick values inside [min, max]: for a linear axis multiples of 1, 2 or 5 times a power

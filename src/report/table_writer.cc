@@ -8,6 +8,7 @@
 
 #include "core/constants.h"
 #include "core/error.h"
+#include "core/output_text.h"
 
 namespace sevenfold {
 
@@ -33,23 +34,23 @@ double GibbsFunction(const ThermoPoint& point) {
 
 namespace {
 
-std::string JsonString(const std::string& text) {
-  std::string out = "\"";
-  for (const char c : text) {
-    switch (c) {
-      case '"': out += "\\\""; break;
-      case '\\': out += "\\\\"; break;
-      case '\n': out += "\\n"; break;
-      case '\t': out += "\\t"; break;
-      default:
-        if (static_cast<unsigned char>(c) < 0x20) {
-          out += fmt::format("\\u{:04x}", static_cast<int>(c));
-        } else {
-          out += c;
-        }
-    }
+// A CSV text cell per RFC 4180 (quoted when it holds a comma, a quote, CR or LF; quotes doubled),
+// and neutralised for spreadsheets: a cell starting with =, +, -, @, tab or CR would be read as a
+// formula, so it gets a leading apostrophe (the usual defence against CSV formula injection).
+// CSV goes to terminals too (`table --format csv`), so control characters, line breaks
+// included, are written visibly first. Only text cells go through here.
+std::string CsvTextCell(const std::string& raw) {
+  std::string text = VisibleControls(raw, false);
+  if (!text.empty() && std::string("=+-@\t\r").find(text[0]) != std::string::npos) {
+    text = "'" + text;
   }
-  return out + "\"";
+  if (text.find_first_of(",\"\r\n") == std::string::npos) return text;
+  std::string quoted = "\"";
+  for (const char c : text) {
+    quoted += c;
+    if (c == '"') quoted += '"';
+  }
+  return quoted + "\"";
 }
 
 std::string PressureLabel(double pressure_pa) {
@@ -78,7 +79,8 @@ std::string FormatText(const std::vector<TableRow>& rows) {
       footnote();
       current = row.species;
       if (!out.empty()) out += "\n";
-      out += fmt::format("{}  (ideal gas, standard pressure {})\n", row.species,
+      out += fmt::format("{}  (ideal gas, standard pressure {})\n",
+                         VisibleControls(row.species, false),
                          PressureLabel(row.standard_pressure_pa));
       out += fmt::format("{:>10} {:>10} {:>10} {:>11} {:>12} {:>12}\n", "T", "Cp", "S",
                          "H-H298", "H", "-(G-H298)/T");
@@ -103,7 +105,7 @@ std::string FormatCsv(const std::vector<TableRow>& rows) {
                     (range_column ? std::string(",") + kOutsideRangeColumn : std::string()) + "\n";
   for (const TableRow& row : rows) {
     const ThermoPoint& p = row.point;
-    out += fmt::format("{},{},{},{},{},{},{}{}\n", row.species, p.t_k, p.cp_j_per_mol_k,
+    out += fmt::format("{},{},{},{},{},{},{}{}\n", CsvTextCell(row.species), p.t_k, p.cp_j_per_mol_k,
                        p.s_j_per_mol_k, p.h_minus_h298_j_per_mol / 1000.0,
                        p.h_j_per_mol / 1000.0, GibbsFunction(p),
                        range_column ? (row.outside_range.value_or(false) ? ",true" : ",false")
