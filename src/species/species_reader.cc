@@ -23,11 +23,12 @@
 #include "core/digest.h"
 #include "core/elements.h"
 #include "core/parallel.h"
+#include "core/read_file.h"
 #include "core/units.h"
+#include "core/utf8.h"
 #include "species/formula.h"
 #include "species/canonical.h"
 #include "species/file_parser.h"
-#include "species/file_text.h"
 #include "species/geometry.h"
 #include "species/item_split.h"
 #include "species/species_schema.h"
@@ -293,7 +294,8 @@ bool FileParser::Parse(std::vector<NameRecord>* names,
                        bool allow_split,
                        int num_jobs,
                        std::vector<Species>* species) {
-  if (const std::optional<BadByte> bad = FindBadByte(text_)) {
+  // The one validator of both readers (core/utf8.h).
+  if (const std::optional<Utf8Problem> bad = FindUtf8Problem(text_)) {
     const SourceLocation where{file_name_, bad->line, bad->column};
     problems_->Add(file_index_,
                    bad->line,
@@ -301,8 +303,9 @@ bool FileParser::Parse(std::vector<NameRecord>* names,
                    where.ToString() +
                        fmt::format(": found the byte 0x{:02x}, {}; expected UTF-8 text",
                                    static_cast<unsigned>(bad->byte),
-                                   bad->control ? "a control character YAML does not allow"
-                                                : "which is not valid UTF-8"));
+                                   bad->kind == Utf8ProblemKind::kControl
+                                       ? "a control character YAML does not allow"
+                                       : bad->Describe()));
     return false;
   }
   // yaml-cpp's Load silently keeps the first document only; its LoadAll loops forever on some
@@ -491,10 +494,11 @@ std::vector<Species> ReadSpeciesFiles(const std::vector<std::string>& paths, int
   std::vector<Species> all_species;
   for (std::size_t i = 0; i < paths.size(); ++i) {
     const int file_index = static_cast<int>(i);
-    std::string problem;
-    const std::optional<std::string> text = detail::ReadSpeciesFileText(paths[i], &problem);
-    if (!text) {
-      problems.Add(file_index, 0, 0, problem);
+    std::optional<std::string> text;
+    try {
+      text = ReadInputFile(paths[i], "species file");  // core/read_file.h: the one 16 MiB cap
+    } catch (const Error& e) {
+      problems.Add(file_index, 0, 0, e.what());
       continue;
     }
     std::vector<Species> species;

@@ -7,13 +7,14 @@
 #include <string>
 #include <vector>
 
+#include "core/read_file.h"
 #include "species/species.h"
 
 namespace sevenfold {
 
 // Files above this size are refused before parsing (a species list is kilobytes; this bounds the
 // memory and time a hostile or mistaken input can cost).
-inline constexpr std::size_t kMaxSpeciesFileBytes = std::size_t{16} << 20;  // 16 MiB
+inline constexpr std::size_t kMaxSpeciesFileBytes = kMaxInputFileBytes;  // core/read_file.h
 
 // Reads and validates every file, in order, and returns all species in file order. The species of
 // a file are parsed on up to num_jobs threads (0: the machine's hardware threads); the result does

@@ -5,55 +5,6 @@
 
 namespace sevenfold::detail {
 
-std::optional<BadByte> FindBadByte(const std::string& text) {
-  BadByte at;
-  std::size_t i = 0;
-  while (i < text.size()) {
-    const unsigned char lead = static_cast<unsigned char>(text[i]);
-    at.byte = lead;
-    if (lead < 0x80) {
-      if ((lead < 0x20 && lead != '\t' && lead != '\n' && lead != '\r') || lead == 0x7f) {
-        at.control = true;
-        return at;
-      }
-      ++i;
-      if (lead == '\n') {
-        ++at.line;
-        at.column = 1;
-      } else {
-        ++at.column;
-      }
-      continue;
-    }
-    // Well-formed sequences per the Unicode Standard, table 3-7: no overlong forms, no
-    // surrogates, nothing above U+10FFFF.
-    int length = 0;
-    unsigned char second_min = 0x80, second_max = 0xbf;
-    if (lead >= 0xc2 && lead <= 0xdf) {
-      length = 2;
-    } else if (lead >= 0xe0 && lead <= 0xef) {
-      length = 3;
-      if (lead == 0xe0) second_min = 0xa0;
-      if (lead == 0xed) second_max = 0x9f;
-    } else if (lead >= 0xf0 && lead <= 0xf4) {
-      length = 4;
-      if (lead == 0xf0) second_min = 0x90;
-      if (lead == 0xf4) second_max = 0x8f;
-    } else {
-      return at;
-    }
-    if (i + length > text.size()) return at;
-    for (int k = 1; k < length; ++k) {
-      const unsigned char next = static_cast<unsigned char>(text[i + k]);
-      const unsigned char low = k == 1 ? second_min : 0x80, high = k == 1 ? second_max : 0xbf;
-      if (next < low || next > high) return at;
-    }
-    i += static_cast<std::size_t>(length);
-    ++at.column;
-  }
-  return std::nullopt;
-}
-
 int SecondDocumentLine(const std::string& text) {
   const auto is_marker = [](const std::string& line, const char* marker) {
     return line.compare(0, 3, marker) == 0 &&
