@@ -7,6 +7,7 @@
 #include <sys/wait.h>
 #include <unistd.h>
 
+#include <algorithm>
 #include <chrono>
 #include <cstdio>
 #include <cstdlib>
@@ -19,6 +20,7 @@
 #include <vector>
 
 #include <catch2/catch.hpp>
+#include <fmt/format.h>
 
 #include "entries/entries.h"
 #include "run_binary.h"
@@ -154,6 +156,25 @@ TEST_CASE("the bad-input corpus lists every file and has at least 60 cases", "[b
     INFO(name);
     CHECK(listed.count(name) == 1);
   }
+}
+
+TEST_CASE("docs/robustness.md states the corpus's own counts", "[bad_input]") {
+  // "N cases: S species cases in F files ... and E entries files": counted from the corpus here,
+  // so that a new case cannot leave the document behind.
+  std::string doc = ReadWhole(std::string(SEVENFOLD_SOURCE_DIR) + "/docs/robustness.md");
+  std::replace(doc.begin(), doc.end(), '\n', ' ');
+  int num_species_cases = 0, num_entries_cases = 0, num_species_files = 0, num_entries_files = 0;
+  for (const Case& one : LoadCases()) {
+    (one.files.front().rfind("s", 0) == 0 ? num_species_cases : num_entries_cases) += 1;
+    for (const std::string& file : one.files) {
+      (file.rfind("s", 0) == 0 ? num_species_files : num_entries_files) += 1;
+    }
+  }
+  const std::string expected = fmt::format(
+      "holds malformed and hostile inputs, {} cases: {} species cases in {} files",
+      num_species_cases + num_entries_cases, num_species_cases, num_species_files);
+  CHECK_THAT(doc, Catch::Contains(expected));
+  CHECK_THAT(doc, Catch::Contains(fmt::format("and {} entries files", num_entries_files)));
 }
 
 TEST_CASE("every bad input exits 2 with its location and the expected message", "[bad_input]") {
