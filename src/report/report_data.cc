@@ -343,19 +343,11 @@ ReportData AnalyseReport(const ReportInput& input, const ReportOptions& options)
 
   ThrowJoinedErrors(errors);
 
-  // Worst first; the index keeps the order total, so the output never depends on the sort's
-  // treatment of equal keys.
+  // In the order of the input: the order asked for with --species, else file order (issue 12:
+  // every command lists species the same way). Each page still ranks nothing by position; the
+  // summary marks failing fits and the form's limit per row.
   std::vector<int> order(reports.size());
   for (size_t i = 0; i < order.size(); ++i) order[i] = static_cast<int>(i);
-  std::sort(order.begin(), order.end(), [&](int a, int b) {
-    const SpeciesReport& ra = reports[a];
-    const SpeciesReport& rb = reports[b];
-    if (ra.fit.max_normalised_error != rb.fit.max_normalised_error) {
-      return ra.fit.max_normalised_error > rb.fit.max_normalised_error;
-    }
-    if (ra.name != rb.name) return ra.name < rb.name;
-    return a < b;
-  });
   for (const int i : order) data.species.push_back(std::move(reports[i]));
   return data;
 }

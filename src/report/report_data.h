@@ -105,7 +105,7 @@ struct ReportData {
   std::string mid_setting;
   std::vector<std::string> entries_without_species;
   std::vector<std::string> baseline_entries_without_species;
-  // Sorted worst fit first: by max_normalised_error descending, then by name, then input order.
+  // In input order: the order of --species when given, else file order.
   std::vector<SpeciesReport> species;
 
   int NumFailing() const;

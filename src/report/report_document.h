@@ -19,18 +19,18 @@ inline constexpr const char* kReportCaution =
 // The version of the JSON layout (field "format_version").
 inline constexpr int kReportJsonVersion = 1;
 
-// index.html: title, provenance, caution, summary table worst fit first, then one section per
+// index.html: title, provenance, caution, summary table in input order, then one section per
 // species (same order) with plots of Cp, H - H298, S and -(G - H298)/T, exact versus fitted
 // (and baseline), and under each the error of the fit with its threshold band. No scripts, no
 // external resources; a print stylesheet is included.
 std::string FormatReportHtml(const ReportData& data);
 
-// summary.md: one Markdown table, worst fit first (species, verdict, max |dCp|/Cp %,
+// summary.md: one Markdown table, in input order (species, verdict, max |dCp|/Cp %,
 // max |dH|/RT, max |dS|/R, T_mid, worst T; with a baseline also the baseline's verdict and
 // worst figure).
 std::string FormatReportMarkdown(const ReportData& data);
 
-// summary.json: every figure of the report (not the sampled curves), species worst first.
+// summary.json: every figure of the report (not the sampled curves), species in input order.
 std::string FormatReportJson(const ReportData& data);
 
 }  // namespace sevenfold

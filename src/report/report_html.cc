@@ -433,7 +433,7 @@ std::string FormatReportHtml(const ReportData& data) {
   }
   html += "</section>\n";
 
-  html += "<section id=\"summary\">\n<h2>Summary, worst fit first</h2>\n";
+  html += "<section id=\"summary\">\n<h2>Summary, in input order</h2>\n";
   html +=
       "<p>Errors of each range over its fit-grid points, fit minus exact. "
       "\u201cworst / threshold\u201d is the largest of the Cp, H and S maxima divided by its "

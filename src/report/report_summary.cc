@@ -181,7 +181,7 @@ std::string FormatReportMarkdown(const ReportData& data) {
     md += "\n";
   }
   md +=
-      "\nWorst fit first. Maxima over each range's fit-grid points, fit minus exact; worst T is "
+      "\nIn input order. Maxima over each range's fit-grid points, fit minus exact; worst T is "
       "where the figure nearest its threshold sits.";
   if (data.NumExtrapolationWarnings() > 0) {
     md += fmt::format(" {} fit(s) extrapolate outside the sane Cp band (see index.html).",
