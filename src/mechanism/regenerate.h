@@ -55,9 +55,12 @@ EntriesFile MakeEntriesFile(const std::vector<SpeciesFit>& results, const Regene
 // The fit options a species gets under `options`.
 FitOptions FitOptionsFor(const Species& species, const RegenerateOptions& options);
 
-// Exact dimensionless curves of a species on the fit grid of its temperature range (the model
-// built exact up to the range's top only: see SpeciesThermo).
-ExactCurves ExactCurvesFor(const Species& species);
+// Exact dimensionless curves of a species on the fit grid of its temperature range, plus exact
+// Cp/R at the guard points beyond it (GuardGrid; empty when the guard is off). The model is built
+// exact up to the guard's top only (see SpeciesThermo); guard points outside the engine's range
+// are left out.
+ExactCurves ExactCurvesFor(const Species& species,
+                           const ExtrapolationGuard& guard = ExtrapolationGuard{});
 
 // A one-line description of the physical model and fit options used for a species; written
 // into each entry's provenance so that a change of model shows as a change of entry.
