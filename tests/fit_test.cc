@@ -779,3 +779,62 @@ TEST_CASE("minimax fits of the demo and of invented species are certified within
 
 }  // namespace
 }  // namespace sevenfold
+
+namespace sevenfold {
+namespace {
+
+TEST_CASE("a threshold miss is printed with the digits that show it", "[fit]") {
+  RangeQuality low, high;
+  low.max_cp_relative = 0.00504;  // 0.504 %: at two digits it would read "0.5 % exceeds 0.5 %"
+  low.max_cp_error_t_k = 200.0;
+  high.max_h_over_rt = 0.0020004;
+  high.max_h_error_t_k = 6000.0;
+  const std::vector<std::string> failures = ThresholdFailures(low, high, QualityThresholds{});
+  REQUIRE(failures.size() == 2);
+  CHECK(failures[0] == "low range: max |dCp|/Cp = 0.504 % at 200 K exceeds 0.5 %");
+  CHECK(failures[1] == "high range: max |dH|/RT = 0.0020004 at 6000 K exceeds 0.002");
+}
+
+TEST_CASE("a polyatomic over 200-6000 K is reported at the form's limit with a passing range",
+          "[fit]") {
+  // C2H4 over 200-6000 K (tests/data/polyatomics-200-6000.yaml): the optimum of the form is
+  // several times the default thresholds (seen: ~5), so no fit can pass; a narrower range can.
+  const std::vector<Species> species = ReadTestSpecies("polyatomics-200-6000.yaml");
+  const auto c2h4 = std::find_if(species.begin(), species.end(),
+                                 [](const Species& one) { return one.name == "C2H4"; });
+  REQUIRE(c2h4 != species.end());
+  FitOptions options;
+  options.num_atoms = c2h4->NumAtoms();
+  options.t_mid_k = 1000.0;
+  const ExactCurves curves = ExactCurvesFor(*c2h4, options.extrapolation_guard);
+  const FitResult fit = FitTwoRange(curves, options, c2h4->thresholds);
+  const FormLimit& limit = fit.quality.form_limit;
+  REQUIRE(limit.computed);
+  CHECK(limit.AtFormLimit());
+  CHECK(limit.best_threshold_ratio > 1.0);
+  REQUIRE(limit.passing_range_found);
+  CHECK(limit.passing_t_high_k - limit.passing_t_low_k < 5800.0);
+  CHECK(limit.passing_t_low_k >= 200.0);
+  CHECK(limit.passing_t_high_k <= 6000.0);
+  CHECK_THAT(DescribeFormLimit(limit), Catch::StartsWith("at the form's limit"));
+}
+
+TEST_CASE("an atom without electronic excitation gets exact coefficients", "[fit]") {
+  // He of species/h2-o2-core.yaml: Cp/R = 5/2 exactly (translation 3/2 plus 1; common practice).
+  const std::vector<Species> species =
+      ReadSpeciesFiles({std::string(SEVENFOLD_SOURCE_DIR) + "/species/h2-o2-core.yaml"});
+  const auto he = std::find_if(species.begin(), species.end(),
+                               [](const Species& one) { return one.name == "He"; });
+  REQUIRE(he != species.end());
+  FitOptions options;
+  options.num_atoms = 1;
+  const FitResult fit = FitTwoRange(ExactCurvesFor(*he), options, he->thresholds);
+  for (const NasaCoefficients* a : {&fit.polynomial.low, &fit.polynomial.high}) {
+    CHECK((*a)[0] == 2.5);
+    for (int k = 1; k < 5; ++k) CHECK((*a)[k] == 0.0);
+  }
+  CHECK(fit.polynomial.low == fit.polynomial.high);
+}
+
+}  // namespace
+}  // namespace sevenfold

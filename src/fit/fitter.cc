@@ -530,6 +530,16 @@ std::string ToString(MidTemperatureMethod method) {
   return "";
 }
 
+// `value` with the fewest significant digits (at least 2) that print it differently from
+// `threshold` at the same precision, so that a miss never reads "0.5 % exceeds 0.5 %".
+std::string DigitsAbove(double value, double threshold) {
+  for (int digits = 2; digits < 17; ++digits) {
+    const std::string shown = fmt::format("{:.{}g}", value, digits);
+    if (shown != fmt::format("{:.{}g}", threshold, digits)) return shown;
+  }
+  return fmt::format("{}", value);
+}
+
 std::vector<std::string> ThresholdFailures(const RangeQuality& low_range,
                                            const RangeQuality& high_range,
                                            const QualityThresholds& thresholds) {
@@ -538,24 +548,120 @@ std::vector<std::string> ThresholdFailures(const RangeQuality& low_range,
                                                                 {"high", &high_range}};
   for (const auto& [name, quality] : ranges) {
     if (quality->max_cp_relative > thresholds.max_cp_relative) {
-      failures.push_back(fmt::format("{} range: max |dCp|/Cp = {:.2g} % at {:g} K exceeds {:g} %",
-                                     name, 100.0 * quality->max_cp_relative,
-                                     quality->max_cp_error_t_k,
-                                     100.0 * thresholds.max_cp_relative));
+      failures.push_back(fmt::format(
+          "{} range: max |dCp|/Cp = {} % at {:g} K exceeds {:g} %", name,
+          DigitsAbove(100.0 * quality->max_cp_relative, 100.0 * thresholds.max_cp_relative),
+          quality->max_cp_error_t_k, 100.0 * thresholds.max_cp_relative));
     }
     if (quality->max_h_over_rt > thresholds.max_h_over_rt) {
-      failures.push_back(fmt::format("{} range: max |dH|/RT = {:.2g} at {:g} K exceeds {:g}", name,
-                                     quality->max_h_over_rt, quality->max_h_error_t_k,
-                                     thresholds.max_h_over_rt));
+      failures.push_back(fmt::format("{} range: max |dH|/RT = {} at {:g} K exceeds {:g}", name,
+                                     DigitsAbove(quality->max_h_over_rt, thresholds.max_h_over_rt),
+                                     quality->max_h_error_t_k, thresholds.max_h_over_rt));
     }
     if (quality->max_s_over_r > thresholds.max_s_over_r) {
-      failures.push_back(fmt::format("{} range: max |dS|/R = {:.2g} at {:g} K exceeds {:g}", name,
-                                     quality->max_s_over_r, quality->max_s_error_t_k,
-                                     thresholds.max_s_over_r));
+      failures.push_back(fmt::format("{} range: max |dS|/R = {} at {:g} K exceeds {:g}", name,
+                                     DigitsAbove(quality->max_s_over_r, thresholds.max_s_over_r),
+                                     quality->max_s_error_t_k, thresholds.max_s_over_r));
     }
   }
   return failures;
 }
+
+std::string DescribeFormLimit(const FormLimit& limit) {
+  if (!limit.computed) return "";
+  if (!limit.AtFormLimit()) {
+    return fmt::format("a better fit of the form exists: the optimum reaches {:.3g} of the "
+                       "thresholds over this range",
+                       limit.best_threshold_ratio);
+  }
+  std::string text = fmt::format(
+      "at the form's limit: no 7-coefficient fit meets the thresholds over this range (best "
+      "achievable {:.3g} times the thresholds)",
+      limit.best_threshold_ratio);
+  if (limit.passing_range_found) {
+    text += fmt::format("; [{:g} K, {:g} K] would pass", limit.passing_t_low_k,
+                        limit.passing_t_high_k);
+  } else {
+    text += "; no narrower range tried passes";
+  }
+  return text;
+}
+
+namespace {
+
+// Steps of the bisection for the widest passing range on each side (each halves the interval of
+// grid indices: 8 steps resolve a grid of ~250 points to about one point).
+constexpr int kPassingRangeSteps = 8;
+
+// The worst error in units of the thresholds of the minimax optimum over grid points [begin, end)
+// of `exact`, at the mid temperature nearest `t_mid_k` that leaves enough points on each side;
+// guard off (the exact curves beyond a shrunk range are the grid's own points, not a guard
+// sample). Infinity when the sub-range is too short.
+double OptimumOverSubrange(const ExactCurves& exact, std::size_t begin, std::size_t end,
+                           const FitOptions& options, const QualityThresholds& thresholds,
+                           double t_mid_k) {
+  if (end - begin < 2 * static_cast<std::size_t>(kMinPointsPerRange) + 2) return HUGE_VAL;
+  ExactCurves sub;
+  sub.t_k.assign(exact.t_k.begin() + begin, exact.t_k.begin() + end);
+  sub.cp_over_r.assign(exact.cp_over_r.begin() + begin, exact.cp_over_r.begin() + end);
+  sub.h_over_rt.assign(exact.h_over_rt.begin() + begin, exact.h_over_rt.begin() + end);
+  sub.s_over_r.assign(exact.s_over_r.begin() + begin, exact.s_over_r.begin() + end);
+  FitOptions sub_options = options;
+  sub_options.extrapolation_guard.enabled = false;
+  sub_options.t_mid_k = std::clamp(t_mid_k, sub.t_k[kMinPointsPerRange],
+                                   sub.t_k[sub.t_k.size() - kMinPointsPerRange]);
+  const ErrorScales scales{thresholds.max_cp_relative, thresholds.max_h_over_rt,
+                           thresholds.max_s_over_r};
+  return FitMinimax(sub, sub_options, scales).max_error;
+}
+
+FormLimit ComputeFormLimit(const ExactCurves& exact, const FitOptions& options,
+                           const QualityThresholds& thresholds, double t_mid_k) {
+  FormLimit limit;
+  limit.computed = true;
+  const ErrorScales scales{thresholds.max_cp_relative, thresholds.max_h_over_rt,
+                           thresholds.max_s_over_r};
+  // The optimum of the same problem (same range, guard and mid-temperature setting) measured in
+  // units of the thresholds.
+  limit.best_threshold_ratio = FitMinimax(exact, options, scales).max_error;
+  if (!(limit.best_threshold_ratio > 1.0)) return limit;
+  // The widest passing range: by bisection on the top end with the bottom fixed, and on the
+  // bottom end with the top fixed; the wider of the two (in ln T) wins.
+  const std::size_t n = exact.t_k.size();
+  auto try_side = [&](bool move_top, std::size_t* best_begin, std::size_t* best_end) {
+    std::size_t passing = move_top ? 0 : n;  // an index known to pass, if any
+    std::size_t lo = 0, hi = n;               // bisection over the moving end
+    bool found = false;
+    for (int step = 0; step < kPassingRangeSteps && hi - lo > 1; ++step) {
+      const std::size_t mid = (lo + hi) / 2;
+      const double value = move_top ? OptimumOverSubrange(exact, 0, mid + 1, options, thresholds, t_mid_k)
+                                    : OptimumOverSubrange(exact, mid, n, options, thresholds, t_mid_k);
+      const bool passes = value <= 1.0;
+      if (passes) {
+        found = true;
+        passing = mid;
+      }
+      if (passes == move_top) lo = mid; else hi = mid;
+    }
+    if (!found) return false;
+    *best_begin = move_top ? 0 : passing;
+    *best_end = move_top ? passing + 1 : n;
+    return true;
+  };
+  std::size_t begin_a = 0, end_a = 0, begin_b = 0, end_b = 0;
+  const bool top = try_side(true, &begin_a, &end_a);
+  const bool bottom = try_side(false, &begin_b, &end_b);
+  auto width = [&](std::size_t b, std::size_t e) { return std::log(exact.t_k[e - 1] / exact.t_k[b]); };
+  if (top || bottom) {
+    const bool use_top = top && (!bottom || width(begin_a, end_a) >= width(begin_b, end_b));
+    limit.passing_range_found = true;
+    limit.passing_t_low_k = exact.t_k[use_top ? begin_a : begin_b];
+    limit.passing_t_high_k = exact.t_k[(use_top ? end_a : end_b) - 1];
+  }
+  return limit;
+}
+
+}  // namespace
 
 FitResult FitTwoRange(const ExactCurves& exact, const FitOptions& options,
                       const QualityThresholds& thresholds) {
@@ -695,6 +801,10 @@ FitResult FitTwoRange(const ExactCurves& exact, const FitOptions& options,
     }
     result.max_normalised_error = worst;
     if (options.objective == FitObjective::kMinimax) result.objective = worst;
+  }
+  if (!result.quality.MeetsThresholds()) {
+    result.quality.form_limit =
+        ComputeFormLimit(exact, options, thresholds, solution.polynomial.t_mid_k);
   }
   const double upper_cp_over_r =
       (options.num_atoms > 0

@@ -97,6 +97,11 @@ std::vector<std::string> ThresholdFailures(const RangeQuality& low_range,
                                            const RangeQuality& high_range,
                                            const QualityThresholds& thresholds);
 
+// One line on what the form can reach, for a fit that misses its thresholds: "a better fit of
+// the form exists: ..." or "at the form's limit: ... (best achievable 4.5 times the thresholds);
+// [200 K, 2450 K] would pass". Empty when not computed.
+std::string DescribeFormLimit(const FormLimit& limit);
+
 // Minimum grid points on each side of t_mid: more than the 7 coefficients of a range.
 inline constexpr int kMinPointsPerRange = 8;
 
