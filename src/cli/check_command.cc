@@ -1,6 +1,8 @@
 // SPDX-License-Identifier: MIT
 #include "cli/check_command.h"
 
+#include <algorithm>
+
 #include <iostream>
 #include <memory>
 
@@ -32,6 +34,8 @@ void SetupCheckCommand(CLI::App& app, int& exit_status) {
   AddObjectiveOptions(*command, options->objective, options->extrapolation_guard);
   command->add_flag("--smooth-curvature", options->continuous_second_derivative,
                     "Regenerate with d2Cp/dT2 continuous at the mid temperature (as fit does)");
+  command->add_flag("--allow-poor-fits", options->allow_poor_fits,
+                    "Exit 0 even when a regenerated fit misses its quality thresholds (as fit)");
   AddJobsOption(*command, options->num_jobs);
   command->add_flag("-q,--quiet", options->quiet, "No progress bar");
   command->callback([options, &exit_status] { exit_status = RunCheckCommand(*options); });
@@ -48,8 +52,13 @@ int RunCheckCommand(const CheckCommandOptions& options) {
   regenerate.progress = progress.Callback();
   const std::vector<SpeciesFit> results = FitAllSpecies(species, regenerate);
   progress.Finish();
-
-  const CheckResult result = CheckEntries(results, committed, regenerate);
+  CheckResult result = CheckEntries(results, committed, regenerate);
+  if (options.allow_poor_fits) {  // poor fits are findings unless allowed, as in fit
+    std::vector<Finding>& findings = result.findings;
+    findings.erase(std::remove_if(findings.begin(), findings.end(),
+                                  [](const Finding& f) { return f.kind == FindingKind::kFitFails; }),
+                   findings.end());
+  }
   if (!options.junit_path.empty()) {
     WriteFileAtomically(options.junit_path,
                         FormatJUnitReport(result, "sevenfold check " + options.entries_path));
