@@ -426,4 +426,31 @@ TEST_CASE("the committed demo entries pass check against the demo species", "[cl
   CHECK(std::filesystem::exists(std::string(SEVENFOLD_SOURCE_DIR) + "/output/report/index.html"));
 }
 
+TEST_CASE("fit and check fail on a fit at the form's limit unless poor fits are allowed", "[cli]") {
+  // CH4 over 200-6000 K (tests/data/polyatomics-200-6000.yaml): no 7-coefficient fit meets the
+  // default thresholds there (docs/fitting.md, "Verdicts"); exit 1 is a finding, not an error.
+  const std::filesystem::path dir = std::filesystem::temp_directory_path();
+  const std::string entries = (dir / "sevenfold-cli-form-limit.entries").string();
+  const std::string species = (dir / "sevenfold-cli-form-limit.yaml").string();
+  {  // the file's header and its first species, CH4
+    const std::string all = ReadWhole(std::string(SEVENFOLD_SOURCE_DIR) +
+                                      "/tests/data/polyatomics-200-6000.yaml");
+    std::ofstream out(species);
+    out << all.substr(0, all.find("  - name: C2H4"));
+  }
+  const std::string input = species + " -q -j 1";
+  const RunResult fit = Run("fit " + input + " --mid 1000 -o " + entries);
+  CHECK(fit.exit_status == 1);
+  CHECK_THAT(fit.err, Catch::Contains("at the form's limit"));
+  CHECK_THAT(fit.err, Catch::Contains("would pass"));
+  REQUIRE(Run("fit " + input + " --mid 1000 --allow-poor-fits -o " + entries).exit_status == 0);
+  const RunResult check = Run("check " + input + " --mid 1000 -e " + entries);
+  CHECK(check.exit_status == 1);
+  CHECK_THAT(check.out, Catch::Contains("fit-fails"));
+  const RunResult allowed = Run("check " + input + " --mid 1000 --allow-poor-fits -e " + entries);
+  CHECK(allowed.exit_status == 0);
+  std::filesystem::remove(entries);
+  std::filesystem::remove(species);
+}
+
 }  // namespace

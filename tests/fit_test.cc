@@ -2,11 +2,14 @@
 // Tests of the fit module: polynomial evaluation, the constrained fit, the mid-temperature
 // choice, the quality figures and the extrapolation check.
 #include <algorithm>
+#include <array>
 #include <filesystem>
 #include <cmath>
+#include <optional>
 #include <string>
 #include <vector>
 
+#include <Eigen/Dense>
 #include <catch2/catch.hpp>
 
 #include "core/constants.h"
@@ -306,6 +309,7 @@ TEST_CASE("automatic mid temperature is refined by Ceres and does at least as we
   const EinsteinGas gas = CarbonDioxide();
   const ExactCurves curves = gas.Sample(FitGrid(200.0, 6000.0));
   FitOptions automatic;
+  automatic.objective = FitObjective::kLeastSquares;  // the Ceres refinement is least squares
   automatic.num_atoms = 3;
   const FitResult fit = FitTwoRange(curves, automatic, QualityThresholds{});
   INFO("t_mid = " << fit.polynomial.t_mid_k << ", note: " << fit.mid_choice.note);
@@ -325,6 +329,39 @@ TEST_CASE("automatic mid temperature is refined by Ceres and does at least as we
   // Deterministic: the same bits again.
   const FitResult again = FitTwoRange(curves, automatic, QualityThresholds{});
   CHECK(again.polynomial.t_mid_k == fit.polynomial.t_mid_k);
+  CHECK(again.polynomial.low == fit.polynomial.low);
+  CHECK(again.polynomial.high == fit.polynomial.high);
+}
+
+// The issue's promise for the automatic mid temperature: within 2 % of the best of a 10 K scan.
+constexpr double kMidSearchFactor = 1.02;
+
+TEST_CASE("automatic mid temperature of a minimax fit is within 2 % of the best on a 10 K scan",
+          "[fit]") {
+  // The guard needs exact Cp beyond the range: the Einstein gas gives it.
+  const EinsteinGas gas = CarbonDioxide();
+  ExactCurves curves = gas.Sample(FitGrid(200.0, 6000.0));
+  for (double t_k : GuardGrid(200.0, 6000.0, ExtrapolationGuard{})) {
+    curves.guard_t_k.push_back(t_k);
+    curves.guard_cp_over_r.push_back(gas.CpOverR(t_k));
+  }
+  FitOptions automatic;
+  automatic.num_atoms = 3;
+  const FitResult fit = FitTwoRange(curves, automatic, QualityThresholds{});
+  double best_scan = HUGE_VAL, best_t_k = 0.0;
+  for (double t_mid_k = 300.0; t_mid_k <= 5600.0; t_mid_k += 10.0) {
+    FitOptions fixed = automatic;
+    fixed.t_mid_k = t_mid_k;
+    const double value = FitTwoRange(curves, fixed, QualityThresholds{}).max_normalised_error;
+    if (value < best_scan) {
+      best_scan = value;
+      best_t_k = t_mid_k;
+    }
+  }
+  CAPTURE(fit.polynomial.t_mid_k, fit.max_normalised_error, best_t_k, best_scan);
+  CHECK(fit.max_normalised_error <= kMidSearchFactor * best_scan);
+  // Deterministic: the same bits again.
+  const FitResult again = FitTwoRange(curves, automatic, QualityThresholds{});
   CHECK(again.polynomial.low == fit.polynomial.low);
   CHECK(again.polynomial.high == fit.polynomial.high);
 }
@@ -398,14 +435,23 @@ TEST_CASE("a curve with a sharp low-temperature feature is reported as failing",
     curves.h_over_rt.push_back(gas.HOverRT(t_k) + x * w / q);
     curves.s_over_r.push_back(gas.SOverR(t_k) + std::log(q) + x * w / q);
   }
-  FitOptions options;
-  options.t_mid_k = 1000.0;
-  const FitResult fit = FitTwoRange(curves, options, QualityThresholds{});
-  CHECK_FALSE(fit.quality.MeetsThresholds());
-  REQUIRE_FALSE(fit.quality.threshold_failures.empty());
-  CHECK_THAT(fit.quality.threshold_failures.front(), Catch::StartsWith("low range: max |dCp|/Cp = "));
-  CHECK(fit.quality.low_range.max_cp_relative > QualityThresholds{}.max_cp_relative);
-  CHECK(fit.quality.low_range.max_cp_error_t_k < 100.0);  // the failure sits in the feature
+  for (const FitObjective objective : {FitObjective::kMinimax, FitObjective::kLeastSquares}) {
+    CAPTURE(ToString(objective));
+    FitOptions options;
+    options.t_mid_k = 1000.0;
+    options.objective = objective;
+    const FitResult fit = FitTwoRange(curves, options, QualityThresholds{});
+    CHECK_FALSE(fit.quality.MeetsThresholds());
+    REQUIRE_FALSE(fit.quality.threshold_failures.empty());
+    CHECK_THAT(fit.quality.threshold_failures.front(),
+               Catch::StartsWith("low range: max |dCp|/Cp = "));
+    CHECK(fit.quality.low_range.max_cp_relative > QualityThresholds{}.max_cp_relative);
+    // Least squares leaves its largest error in the feature; minimax spreads the worst error
+    // over several temperatures of equal size (equioscillation), so its place says nothing.
+    if (objective == FitObjective::kLeastSquares) {
+      CHECK(fit.quality.low_range.max_cp_error_t_k < 100.0);
+    }
+  }
 }
 
 TEST_CASE("extrapolation outside the sane band is reported", "[fit]") {
@@ -522,6 +568,7 @@ TEST_CASE("the mid-temperature search objective agrees with the full solve", "[f
   for (const Species& one : species) {
     const ExactCurves curves = ExactCurvesFor(one);
     FitOptions automatic;
+    automatic.objective = FitObjective::kLeastSquares;  // the least-squares search's two paths
     automatic.num_atoms = one.NumAtoms();
     const FitResult fit = FitTwoRange(curves, automatic, one.thresholds);
     FitOptions fixed = automatic;
@@ -543,6 +590,250 @@ TEST_CASE("the mid-temperature search objective agrees with the full solve", "[f
     ++num_compared;
   }
   CHECK(num_compared >= 20);
+}
+
+}  // namespace
+}  // namespace sevenfold
+
+namespace sevenfold {
+namespace {
+
+// ---- Optimality certificate of the minimax fit, recomputed independently ----
+// Weak duality (Boyd & Vandenberghe, Convex Optimization, 2004, sec. 5.2, from memory): for
+// weights w >= 0 with sum 1 on the normalised errors e_i and multipliers mu >= 0 on the guard
+// constraints q_j^2 <= 1, every feasible fit has max e_i^2 >= sum w e^2 + sum mu (q^2 - 1), so
+// optimum^2 >= min over the equality-constrained coefficients of that quadratic. The test takes
+// only the weights from the fitter and computes the minimum itself: its own design in
+// tau = T / 1000 K (the fitter uses 1024 K), in long double, constraints eliminated by a
+// full-pivoting QR and the weighted least squares solved by SVD. The worst error is evaluated from
+// the printed-form coefficients.
+using LongMatrix = Eigen::Matrix<long double, Eigen::Dynamic, Eigen::Dynamic>;
+using LongVector = Eigen::Matrix<long double, Eigen::Dynamic, 1>;
+constexpr long double kTestScaleK = 1000.0L;
+
+// The rows of Cp/R, dCp/dT (per tau), d2Cp/dT2, H/RT and S/R in tau.
+std::array<long double, 7> TestRow(int quantity, long double tau) {
+  const long double t2 = tau * tau, t3 = t2 * tau, t4 = t3 * tau;
+  switch (quantity) {
+    case 0: return {1, tau, t2, t3, t4, 0, 0};
+    case 1: return {0, 1, 2 * tau, 3 * t2, 4 * t3, 0, 0};
+    case 2: return {0, 0, 2, 6 * tau, 12 * t2, 0, 0};
+    case 3: return {1, tau / 2, t2 / 3, t3 / 4, t4 / 5, 1 / tau, 0};
+    default: return {std::log(tau), tau, t2 / 2, t3 / 3, t4 / 4, 0, 1};
+  }
+}
+
+struct CertificateCheck {
+  double worst = 0.0;        // achieved worst normalised error (from the kelvin coefficients)
+  double lower_bound = 0.0;  // recomputed from the certificate's weights
+  bool guard_met = true;
+};
+
+CertificateCheck CheckCertificate(const ExactCurves& exact, const FitOptions& options,
+                                  const FitResult& fit) {
+  const ErrorScales& scales = options.error_scales;
+  const TwoRangePolynomial& p = fit.polynomial;
+  const std::size_t n = exact.t_k.size();
+  REQUIRE(fit.certificate.weights.size() == 3 * n);
+  CertificateCheck check;
+  for (std::size_t i = 0; i < n; ++i) {
+    const double t = exact.t_k[i];
+    check.worst = std::max({check.worst,
+                            std::fabs(CpOverR(p, t) / exact.cp_over_r[i] - 1.0) / scales.cp_relative,
+                            std::fabs(HOverRT(p, t) - exact.h_over_rt[i]) / scales.h_over_rt,
+                            std::fabs(SOverR(p, t) - exact.s_over_r[i]) / scales.s_over_r});
+  }
+  const ExtrapolationGuard& guard = options.extrapolation_guard;
+  const std::size_t num_guard = guard.enabled ? exact.guard_t_k.size() : 0;
+  for (std::size_t j = 0; j < num_guard; ++j) {
+    const double t = exact.guard_t_k[j], cp = exact.guard_cp_over_r[j];
+    const NasaCoefficients& a = t < p.t_low_k ? p.low : p.high;
+    // 1e-9 of the band: rounding of the evaluation, far below any physical meaning.
+    if (std::fabs(CpOverR(a, t) - cp) / (guard.band * cp) > 1.0 + 1e-9) check.guard_met = false;
+  }
+  // The weighted rows (sqrt of the weights) and the constraints, in tau = T / kTestScaleK.
+  LongMatrix a = LongMatrix::Zero(static_cast<Eigen::Index>(3 * n + num_guard), 14);
+  LongVector b = LongVector::Zero(a.rows());
+  long double sum_mu = 0.0L;
+  for (std::size_t i = 0; i < n; ++i) {
+    const long double tau = exact.t_k[i] / kTestScaleK;
+    const int offset = exact.t_k[i] < p.t_mid_k ? 0 : 7;
+    const long double scale[3] = {scales.cp_relative * exact.cp_over_r[i], scales.h_over_rt,
+                                  scales.s_over_r};
+    const long double value[3] = {exact.cp_over_r[i], exact.h_over_rt[i], exact.s_over_r[i]};
+    const int quantity[3] = {0, 3, 4};
+    for (int q = 0; q < 3; ++q) {
+      const long double w = std::sqrt(static_cast<long double>(fit.certificate.weights[3 * i + q]));
+      const auto row = TestRow(quantity[q], tau);
+      for (int k = 0; k < 7; ++k) a(3 * i + q, offset + k) = w * row[k] / scale[q];
+      b[3 * i + q] = w * value[q] / scale[q];
+    }
+  }
+  for (std::size_t j = 0; j < num_guard; ++j) {
+    const long double mu = fit.certificate.multipliers.at(j);
+    REQUIRE(mu >= 0.0L);
+    sum_mu += mu;
+    const long double tau = exact.guard_t_k[j] / kTestScaleK;
+    const int offset = exact.guard_t_k[j] < p.t_low_k ? 0 : 7;
+    const long double scale = guard.band * exact.guard_cp_over_r[j];
+    const auto row = TestRow(0, tau);
+    for (int k = 0; k < 7; ++k) a(3 * n + j, offset + k) = std::sqrt(mu) * row[k] / scale;
+    b[3 * n + j] = std::sqrt(mu) * exact.guard_cp_over_r[j] / scale;
+  }
+  const int num_continuity = options.continuous_second_derivative ? 5 : 4;
+  const bool pinned = options.pin_reference_state && p.t_low_k <= kReferenceTemperature &&
+                      kReferenceTemperature <= p.t_high_k;
+  LongMatrix c = LongMatrix::Zero(num_continuity + (pinned ? 2 : 0), 14);
+  LongVector d = LongVector::Zero(c.rows());
+  const int continuity[5] = {0, 1, 3, 4, 2};
+  for (int r = 0; r < num_continuity; ++r) {
+    const auto row = TestRow(continuity[r], p.t_mid_k / kTestScaleK);
+    for (int k = 0; k < 7; ++k) {
+      c(r, k) = row[k];
+      c(r, 7 + k) = -row[k];
+    }
+  }
+  if (pinned) {
+    const auto at = std::lower_bound(exact.t_k.begin(), exact.t_k.end(), kReferenceTemperature);
+    REQUIRE(*at == kReferenceTemperature);  // FitGrid includes it
+    const std::size_t i = static_cast<std::size_t>(at - exact.t_k.begin());
+    const int offset = kReferenceTemperature < p.t_mid_k ? 0 : 7;
+    const auto h = TestRow(3, kReferenceTemperature / kTestScaleK);
+    const auto s = TestRow(4, kReferenceTemperature / kTestScaleK);
+    for (int k = 0; k < 7; ++k) {
+      c(num_continuity, offset + k) = h[k];
+      c(num_continuity + 1, offset + k) = s[k];
+    }
+    d[num_continuity] = exact.h_over_rt[i];
+    d[num_continuity + 1] = exact.s_over_r[i];
+  }
+  // x = x_p + N z with C x_p = d, C N = 0; z minimises |A N z - (b - A x_p)|.
+  const Eigen::FullPivHouseholderQR<LongMatrix> cqr(c.transpose());
+  REQUIRE(cqr.rank() == c.rows());
+  const LongMatrix q = cqr.matrixQ();
+  const LongMatrix null_space = q.rightCols(14 - c.rows());
+  const LongVector x_p = c.completeOrthogonalDecomposition().solve(d);
+  const LongMatrix reduced = a * null_space;
+  const LongVector z = reduced.jacobiSvd(Eigen::ComputeThinU | Eigen::ComputeThinV)
+                           .solve(b - a * x_p);
+  const LongVector x = x_p + null_space * z;
+  const long double min_value = (a * x - b).squaredNorm();
+  const long double bound2 = min_value - sum_mu;
+  check.lower_bound = bound2 > 0 ? static_cast<double>(std::sqrt(bound2)) : 0.0;
+  return check;
+}
+
+// The issue's promise: within 1.05 of the optimum of the same problem.
+constexpr double kOptimalityFactor = 1.05;
+// Below this worst error a fit is exact to rounding (atoms: the curves lie in the form); the
+// ratio to a lower bound of ~0 says nothing there.
+constexpr double kExactFitWorst = 1e-6;
+
+void RequireCertified(const std::vector<Species>& species, std::optional<double> t_mid_k,
+                      int* num_certified) {
+  for (const Species& one : species) {
+    FitOptions options;
+    options.num_atoms = one.NumAtoms();
+    options.t_mid_k = t_mid_k ? t_mid_k : one.temperatures.mid_k;
+    const ExactCurves curves = ExactCurvesFor(one, options.extrapolation_guard);
+    const FitResult fit = FitTwoRange(curves, options, one.thresholds);
+    const CertificateCheck check = CheckCertificate(curves, options, fit);
+    CAPTURE(one.name, fit.polynomial.t_mid_k, check.worst, check.lower_bound,
+            fit.certificate.lower_bound, fit.certificate.num_iterations);
+    CHECK(check.guard_met);
+    CHECK(check.worst == Approx(fit.max_normalised_error).epsilon(1e-6).margin(1e-9));
+    if (check.worst < kExactFitWorst) continue;
+    // The bound never exceeds what a fit achieves (else the duality argument or the test is
+    // wrong), and the fit is within kOptimalityFactor of it.
+    CHECK(check.lower_bound <= check.worst * (1.0 + 1e-9));
+    CHECK(check.worst <= kOptimalityFactor * check.lower_bound);
+    ++*num_certified;
+  }
+}
+
+std::vector<Species> ReadTestSpecies(const std::string& name) {
+  return ReadSpeciesFiles({std::string(SEVENFOLD_SOURCE_DIR) + "/tests/data/" + name});
+}
+
+TEST_CASE("minimax fits of polyatomics over 200-6000 K are certified within 1.05 of the optimum",
+          "[fit]") {
+  const std::vector<Species> species = ReadTestSpecies("polyatomics-200-6000.yaml");
+  int num_certified = 0;
+  RequireCertified(species, 1000.0, &num_certified);  // T_mid = 1000 K, as the trade often fixes
+  RequireCertified(species, std::nullopt, &num_certified);  // automatic T_mid
+  CHECK(num_certified == 2 * static_cast<int>(species.size()));
+}
+
+TEST_CASE("minimax fits of the demo and of invented species are certified within 1.05",
+          "[fit]") {
+  std::vector<std::string> files;
+  for (const auto& item : std::filesystem::directory_iterator(SEVENFOLD_SOURCE_DIR "/species")) {
+    if (item.path().extension() == ".yaml") files.push_back(item.path().string());
+  }
+  std::sort(files.begin(), files.end());
+  int num_certified = 0;
+  RequireCertified(ReadSpeciesFiles(files), std::nullopt, &num_certified);
+  RequireCertified(ReadTestSpecies("invented-30.yaml"), std::nullopt, &num_certified);
+  CHECK(num_certified >= 45);
+}
+
+}  // namespace
+}  // namespace sevenfold
+
+namespace sevenfold {
+namespace {
+
+TEST_CASE("a threshold miss is printed with the digits that show it", "[fit]") {
+  RangeQuality low, high;
+  low.max_cp_relative = 0.00504;  // 0.504 %: at two digits it would read "0.5 % exceeds 0.5 %"
+  low.max_cp_error_t_k = 200.0;
+  high.max_h_over_rt = 0.0020004;
+  high.max_h_error_t_k = 6000.0;
+  const std::vector<std::string> failures = ThresholdFailures(low, high, QualityThresholds{});
+  REQUIRE(failures.size() == 2);
+  CHECK(failures[0] == "low range: max |dCp|/Cp = 0.504 % at 200 K exceeds 0.5 %");
+  CHECK(failures[1] == "high range: max |dH|/RT = 0.0020004 at 6000 K exceeds 0.002");
+}
+
+TEST_CASE("a polyatomic over 200-6000 K is reported at the form's limit with a passing range",
+          "[fit]") {
+  // C2H4 over 200-6000 K (tests/data/polyatomics-200-6000.yaml): the optimum of the form is
+  // several times the default thresholds (seen: ~5), so no fit can pass; a narrower range can.
+  const std::vector<Species> species = ReadTestSpecies("polyatomics-200-6000.yaml");
+  const auto c2h4 = std::find_if(species.begin(), species.end(),
+                                 [](const Species& one) { return one.name == "C2H4"; });
+  REQUIRE(c2h4 != species.end());
+  FitOptions options;
+  options.num_atoms = c2h4->NumAtoms();
+  options.t_mid_k = 1000.0;
+  const ExactCurves curves = ExactCurvesFor(*c2h4, options.extrapolation_guard);
+  const FitResult fit = FitTwoRange(curves, options, c2h4->thresholds);
+  const FormLimit& limit = fit.quality.form_limit;
+  REQUIRE(limit.computed);
+  CHECK(limit.AtFormLimit());
+  CHECK(limit.best_threshold_ratio > 1.0);
+  REQUIRE(limit.passing_range_found);
+  CHECK(limit.passing_t_high_k - limit.passing_t_low_k < 5800.0);
+  CHECK(limit.passing_t_low_k >= 200.0);
+  CHECK(limit.passing_t_high_k <= 6000.0);
+  CHECK_THAT(DescribeFormLimit(limit), Catch::StartsWith("at the form's limit"));
+}
+
+TEST_CASE("an atom without electronic excitation gets exact coefficients", "[fit]") {
+  // He of species/h2-o2-core.yaml: Cp/R = 5/2 exactly (translation 3/2 plus 1; common practice).
+  const std::vector<Species> species =
+      ReadSpeciesFiles({std::string(SEVENFOLD_SOURCE_DIR) + "/species/h2-o2-core.yaml"});
+  const auto he = std::find_if(species.begin(), species.end(),
+                               [](const Species& one) { return one.name == "He"; });
+  REQUIRE(he != species.end());
+  FitOptions options;
+  options.num_atoms = 1;
+  const FitResult fit = FitTwoRange(ExactCurvesFor(*he), options, he->thresholds);
+  for (const NasaCoefficients* a : {&fit.polynomial.low, &fit.polynomial.high}) {
+    CHECK((*a)[0] == 2.5);
+    for (int k = 1; k < 5; ++k) CHECK((*a)[k] == 0.0);
+  }
+  CHECK(fit.polynomial.low == fit.polynomial.high);
 }
 
 }  // namespace

@@ -20,6 +20,8 @@ struct CheckCommandOptions {
   bool continuous_second_derivative = false;
   int num_jobs = 0;         // 0: hardware threads
   bool quiet = false;
+  // Exit 0 even when a regenerated fit misses its thresholds (as fit --allow-poor-fits).
+  bool allow_poor_fits = false;
 };
 
 // Adds the subcommand; when it runs, its exit status goes to exit_status.

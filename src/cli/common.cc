@@ -218,6 +218,10 @@ int ReportPoorFits(const std::vector<SpeciesFit>& results, bool allow_poor_fits)
         std::cerr << fmt::format("{}: species '{}': poor fit: {}\n", species.location.ToString(),
                                  species.name, failure);
       }
+      if (const std::string limit = DescribeFormLimit(result.fit.quality.form_limit); !limit.empty()) {
+        std::cerr << fmt::format("{}: species '{}': poor fit: {}\n", species.location.ToString(),
+                                 species.name, limit);
+      }
     }
     if (!result.fit.quality.extrapolation.sane) {
       std::cerr << fmt::format("{}: species '{}': warning: extrapolation: {}\n",

@@ -20,14 +20,14 @@
 
 #include "core/constants.h"
 #include "core/error.h"
+#include "fit/design_rows.h"
+#include "fit/minimax_fit.h"
 
 namespace sevenfold {
 namespace {
 
-// The fit runs in tau = T / kScaleTemperatureK. A power of two makes the back-transform of
-// a1..a6 (multiplication by powers of 2) exact in binary floating point; only a7 = b7 - b1 ln T_s
-// takes one rounding. 1024 K keeps tau^4 below ~1e3 up to 6000 K instead of T^4 ~ 1e15.
-constexpr double kScaleTemperatureK = 1024.0;
+using namespace detail;  // NOLINT: the fit module's own internals
+
 // Exponent p of the p-norm used as the smooth measure of the worst error. 16 is close enough to
 // the max (within a factor n^(1/16) ~ 1.5 for n ~ 600 residuals) while staying smooth.
 constexpr double kObjectiveExponent = 16.0;
@@ -36,8 +36,6 @@ constexpr int kNumScanPoints = 41;
 // The refined mid temperature is rounded to 1/kMidRoundingPerK K, so entries show a readable
 // value (dividing by 10 gives the double nearest to the decimal, printed short).
 constexpr double kMidRoundingPerK = 10.0;
-// A grid temperature within this distance of 298.15 K is taken as 298.15 K itself.
-constexpr double kReferenceMatchK = 1e-9;
 // Start of the refinement parameter when the best candidate sits on the edge of its bracket.
 constexpr double kEdgeStartParameter = 3.0;
 // Ceres settings of the 1-parameter refinement (docs/fitting.md). The central-difference step is
@@ -54,10 +52,8 @@ constexpr double kSearchTieRelative = 1e-6;
 
 using Matrix = Eigen::MatrixXd;
 using Vector = Eigen::VectorXd;
-using Row7 = Eigen::Matrix<double, 1, 7>;
 // A weighted row of the least-squares problem: the 7 coefficients of its range, then the
 // right-hand side; and the triangular factor R (with Q^T b in its last column) of a set of rows.
-using Row8 = Eigen::Matrix<double, 1, 8>;
 using Triangle8 = Eigen::Matrix<double, 8, 8, Eigen::RowMajor>;
 
 // Adds one row to the QR factorisation [R | Q^T b] of a set of rows by Givens rotations: the
@@ -77,12 +73,6 @@ void AddRow(Triangle8& r, Row8 row) {
     }
   }
 }
-// The constraint matrix has 14 columns and at most 7 rows (4 or 5 continuity, 2 pinning).
-constexpr int kMaxConstraints = 7;
-// C (one row per constraint) and d, with fixed capacity: built for every search candidate.
-using ConstraintMatrix = Eigen::Matrix<double, Eigen::Dynamic, 14, 0, kMaxConstraints, 14>;
-using ConstraintVector = Eigen::Matrix<double, Eigen::Dynamic, 1, 0, kMaxConstraints, 1>;
-
 // min |R x - g| subject to C x = d, R block-diagonal upper triangular (two nonsingular 7 x 7
 // blocks): the search's solve on the triangular factor of a split. With y = R x the problem
 // becomes min |y - g| subject to M y = d, M = C R^-1: the point of an affine set nearest to g.
@@ -90,7 +80,6 @@ using ConstraintVector = Eigen::Matrix<double, Eigen::Dynamic, 1, 0, kMaxConstra
 // y = g - Q1 (Q1^T g - w). Written out on fixed arrays: at this size (14 x at most 7) Eigen's
 // general routines cost several times the arithmetic (docs/performance.md).
 using Matrix14 = Eigen::Matrix<double, 14, 14>;
-using Vector14 = Eigen::Matrix<double, 14, 1>;
 Vector14 SolveOnFactor(const Matrix14& r, const Vector14& g, const ConstraintMatrix& c,
                        const ConstraintVector& d) {
   const int k = static_cast<int>(c.rows());
@@ -155,86 +144,6 @@ Vector14 SolveOnFactor(const Matrix14& r, const Vector14& g, const ConstraintMat
   return x;
 }
 
-// Rows of the linear maps from the scaled coefficients b to the functions at tau.
-Row7 CpRow(double tau) {
-  Row7 row;
-  row << 1.0, tau, tau * tau, tau * tau * tau, tau * tau * tau * tau, 0.0, 0.0;
-  return row;
-}
-Row7 DCpRow(double tau) {
-  Row7 row;
-  row << 0.0, 1.0, 2.0 * tau, 3.0 * tau * tau, 4.0 * tau * tau * tau, 0.0, 0.0;
-  return row;
-}
-Row7 D2CpRow(double tau) {
-  Row7 row;
-  row << 0.0, 0.0, 2.0, 6.0 * tau, 12.0 * tau * tau, 0.0, 0.0;
-  return row;
-}
-Row7 HRow(double tau) {
-  Row7 row;
-  row << 1.0, tau / 2.0, tau * tau / 3.0, tau * tau * tau / 4.0, tau * tau * tau * tau / 5.0,
-      1.0 / tau, 0.0;
-  return row;
-}
-Row7 SRow(double tau) {
-  Row7 row;
-  row << std::log(tau), tau, tau * tau / 2.0, tau * tau * tau / 3.0, tau * tau * tau * tau / 4.0,
-      0.0, 1.0;
-  return row;
-}
-
-// Coefficients in T from coefficients in tau = T / T_s (exact for a1..a6, see above).
-NasaCoefficients ToKelvinCoefficients(const Vector& b, int offset) {
-  NasaCoefficients a;
-  double scale = 1.0;
-  for (int k = 0; k < 5; ++k) {
-    a[k] = b[offset + k] / scale;
-    scale *= kScaleTemperatureK;
-  }
-  a[5] = b[offset + 5] * kScaleTemperatureK;
-  a[6] = b[offset + 6] - b[offset] * std::log(kScaleTemperatureK);
-  return a;
-}
-
-// The exact H/RT and S/R at 298.15 K that the fit is pinned to.
-struct ReferenceState {
-  bool pinned = false;
-  double h_over_rt = 0.0;
-  double s_over_r = 0.0;
-};
-
-ReferenceState FindReferenceState(const ExactCurves& exact, bool pin) {
-  constexpr double kT = constants::kReferenceTemperature;
-  const std::vector<double>& t = exact.t_k;
-  ReferenceState state;
-  if (!pin || kT < t.front() - kReferenceMatchK || kT > t.back() + kReferenceMatchK) return state;
-  state.pinned = true;
-  const std::size_t i = static_cast<std::size_t>(
-      std::lower_bound(t.begin(), t.end(), kT - kReferenceMatchK) - t.begin());
-  if (i < t.size() && std::fabs(t[i] - kT) <= kReferenceMatchK) {
-    state.h_over_rt = exact.h_over_rt[i];
-    state.s_over_r = exact.s_over_r[i];
-    return state;
-  }
-  // 298.15 K is not a grid point (FitGrid always includes it; other grids may not): cubic Hermite
-  // interpolation of H/R and S/R, whose temperature derivatives Cp/R and Cp/(R T) are known
-  // exactly at the neighbouring points.
-  SEVENFOLD_ASSERT(i > 0 && i < t.size());
-  const double t0 = t[i - 1], t1 = t[i], width = t1 - t0;
-  const double u = (kT - t0) / width;
-  const double h00 = (1.0 + 2.0 * u) * (1.0 - u) * (1.0 - u), h10 = u * (1.0 - u) * (1.0 - u);
-  const double h01 = u * u * (3.0 - 2.0 * u), h11 = u * u * (u - 1.0);
-  auto hermite = [&](double y0, double y1, double dy0, double dy1) {
-    return h00 * y0 + h10 * width * dy0 + h01 * y1 + h11 * width * dy1;
-  };
-  const double cp0 = exact.cp_over_r[i - 1], cp1 = exact.cp_over_r[i];
-  state.h_over_rt =
-      hermite(exact.h_over_rt[i - 1] * t0, exact.h_over_rt[i] * t1, cp0, cp1) / kT;
-  state.s_over_r = hermite(exact.s_over_r[i - 1], exact.s_over_r[i], cp0 / t0, cp1 / t1);
-  return state;
-}
-
 // x^16 by repeated squaring: the p-norm of the search path (a few ulp from std::pow).
 inline double PowerSixteen(double x) {
   const double x2 = x * x, x4 = x2 * x2, x8 = x4 * x4;
@@ -250,27 +159,15 @@ struct Solution {
 };
 
 // Holds the prepared problem; Solve() is const and cheap enough to call inside the refinement.
-class ConstrainedFitter {
+class LeastSquaresFitter {
  public:
-  ConstrainedFitter(const ExactCurves& exact, const FitOptions& options,
-                    const QualityThresholds& thresholds)
+  LeastSquaresFitter(const ExactCurves& exact, const FitOptions& options)
       : exact_(exact),
         options_(options),
-        thresholds_(thresholds),
         reference_(FindReferenceState(exact, options.pin_reference_state)) {
-    // Weighted rows: each residual is a normalised error (error / threshold), docs/fitting.md.
+    // Weighted rows: each residual is a normalised error (error / its scale), docs/fitting.md.
     // Built once per species; the exact solve and the search both read them.
-    const std::size_t n = exact_.t_k.size();
-    rows_.resize(3 * n);
-    for (std::size_t i = 0; i < n; ++i) {
-      const double tau = exact_.t_k[i] / kScaleTemperatureK;
-      const double cp_weight = 1.0 / (thresholds_.max_cp_relative * exact_.cp_over_r[i]);
-      rows_[3 * i] << CpRow(tau) * cp_weight, exact_.cp_over_r[i] * cp_weight;
-      rows_[3 * i + 1] << HRow(tau) / thresholds_.max_h_over_rt,
-          exact_.h_over_rt[i] / thresholds_.max_h_over_rt;
-      rows_[3 * i + 2] << SRow(tau) / thresholds_.max_s_over_r,
-          exact_.s_over_r[i] / thresholds_.max_s_over_r;
-    }
+    rows_ = NormalisedRows(exact_, options_.error_scales);
   }
 
   // Lowest and highest mid temperatures leaving kMinPointsPerRange points on each side.
@@ -299,9 +196,11 @@ class ConstrainedFitter {
     SplitFactor(split, factor, target);
     const Matrix a = factor;
     const Vector b = target;
-    Matrix c;
-    Vector d;
-    BuildConstraints(t_mid_k, c, d);
+    ConstraintMatrix fixed_c;
+    ConstraintVector fixed_d;
+    BuildConstraints(t_mid_k, options_.continuous_second_derivative, reference_, fixed_c, fixed_d);
+    const Matrix c = fixed_c;
+    const Vector d = fixed_d;
     const Eigen::Index num_constraints = c.rows();
 
     // Null-space method. C^T P = Q [R; 0] (column-pivoted Householder QR); with Q = [Q1 Q2],
@@ -352,39 +251,6 @@ class ConstrainedFitter {
     return solution;
   }
 
-  // Equality constraints C x = d at t_mid_k: continuity, then the pinned reference state; rows
-  // scaled to unit length. Matrix and Vector for Solve(); ConstraintMatrix and ConstraintVector
-  // (no allocation; the row norms may round differently) for the search.
-  template <typename CMatrix, typename DVector>
-  void BuildConstraints(double t_mid_k, CMatrix& c, DVector& d) const {
-    const double tau_mid = t_mid_k / kScaleTemperatureK;
-    const std::array<Row7, 5> continuity = {CpRow(tau_mid), DCpRow(tau_mid), HRow(tau_mid),
-                                            SRow(tau_mid), D2CpRow(tau_mid)};
-    const Eigen::Index num_continuity = options_.continuous_second_derivative ? 5 : 4;
-    const Eigen::Index num_constraints = num_continuity + (reference_.pinned ? 2 : 0);
-    c.setZero(num_constraints, 14);
-    d.setZero(num_constraints);
-    Eigen::Index k = 0;
-    for (; k < num_continuity; ++k) {
-      c.template block<1, 7>(k, 0) = continuity[static_cast<std::size_t>(k)];
-      c.template block<1, 7>(k, 7) = -continuity[static_cast<std::size_t>(k)];
-    }
-    if (reference_.pinned) {
-      const double tau_ref = constants::kReferenceTemperature / kScaleTemperatureK;
-      const Eigen::Index offset = constants::kReferenceTemperature < t_mid_k ? 0 : 7;
-      c.template block<1, 7>(k, offset) = HRow(tau_ref);
-      d[k++] = reference_.h_over_rt;
-      c.template block<1, 7>(k, offset) = SRow(tau_ref);
-      d[k++] = reference_.s_over_r;
-    }
-    // Rows of unit length: the same constraints, better balanced for the factorisation.
-    for (Eigen::Index r = 0; r < num_constraints; ++r) {
-      const double norm = c.row(r).norm();
-      c.row(r) /= norm;
-      d[r] /= norm;
-    }
-  }
-
   // Prepares SearchObjective(): the triangular factors of the rows below and at or above every
   // possible split, built once by adding rows one at a time from the left and from the right
   // (O(n) Givens rotations, once per species).
@@ -426,7 +292,7 @@ class ConstrainedFitter {
 
     ConstraintMatrix c;
     ConstraintVector d;
-    BuildConstraints(t_mid_k, c, d);
+    BuildConstraints(t_mid_k, options_.continuous_second_derivative, reference_, c, d);
     const Vector14 x = SolveOnFactor(factor, target, c, d);
 
     // Residuals and their p-norm as in Solve(), with x^16 by squaring and one division.
@@ -484,12 +350,11 @@ class ConstrainedFitter {
 
   const ExactCurves& exact_;
   const FitOptions& options_;
-  const QualityThresholds& thresholds_;
   ReferenceState reference_;
   std::vector<Row8> rows_;   // 3 per grid point: Cp, H, S
   std::vector<Triangle8> below_;  // below_[s]: [R | Q^T b] of the rows of grid points i < s
   std::vector<Triangle8> above_;  // above_[s]: the same for grid points i >= s
-  // Scratch of SearchObjective(); a ConstrainedFitter is used by one thread.
+  // Scratch of SearchObjective(); a LeastSquaresFitter is used by one thread.
   mutable std::vector<double> residual_scratch_;
 };
 
@@ -502,7 +367,7 @@ double MidFromParameter(double x, double lower_k, double upper_k) {
 // The objective as a Ceres first-order functor of x. Never throws into Ceres: a failed solve is
 // reported as an evaluation failure.
 struct MidObjective {
-  const ConstrainedFitter* fitter;
+  const LeastSquaresFitter* fitter;
   double lower_k;
   double upper_k;
 
@@ -525,7 +390,7 @@ struct Refinement {
 
 // Minimises the objective over (lower_k, upper_k) from start_k with Ceres' line-search
 // minimiser (BFGS on the one parameter x, gradient by central differences).
-Refinement RefineMid(const ConstrainedFitter& fitter, double lower_k, double upper_k,
+Refinement RefineMid(const LeastSquaresFitter& fitter, double lower_k, double upper_k,
                      double start_k) {
   Refinement refinement;
   double x = 0.0;
@@ -607,6 +472,41 @@ void ValidateThresholds(const QualityThresholds& thresholds) {
   }
 }
 
+// Exact coefficients where the physics is exact: when Cp/R takes one constant value c at every
+// grid point (an atom whose electronic levels stay unexcited: 3/2 from translation plus 1 from
+// p V = R T, common practice), Cp/R = c, H/RT = c + a6/T and S/R = c ln T + a7 represent the
+// curves exactly, with a2..a5 = 0 in both ranges. c is taken as the nearest multiple of 1/2 when
+// within kConstantCpTolerance of it (rounding of the engine's sums), a6 and a7 from the reference
+// state (or the first grid point). Returns nullopt when the curves are not of this kind.
+constexpr double kConstantCpTolerance = 1e-12;
+// H/RT and S/R must be reproduced to this (absolute; values of order 10-100) for the exact form
+// to be used: rounding of the engine's H and S, not a physical tolerance.
+constexpr double kConstantCpCurveTolerance = 1e-10;
+std::optional<NasaCoefficients> ConstantCpCoefficients(const ExactCurves& exact, bool pin) {
+  const double c0 = exact.cp_over_r.front();
+  for (const double cp : exact.cp_over_r) {
+    if (std::fabs(cp - c0) > kConstantCpTolerance * c0) return std::nullopt;
+  }
+  double c = c0;
+  const double half_multiple = std::round(2.0 * c0) / 2.0;
+  if (std::fabs(c0 - half_multiple) <= kConstantCpTolerance * c0) c = half_multiple;
+  const ReferenceState reference = FindReferenceState(exact, pin);
+  const double t_ref = reference.pinned ? constants::kReferenceTemperature : exact.t_k.front();
+  const double h_ref = reference.pinned ? reference.h_over_rt : exact.h_over_rt.front();
+  const double s_ref = reference.pinned ? reference.s_over_r : exact.s_over_r.front();
+  NasaCoefficients a{};
+  a[0] = c;
+  a[5] = (h_ref - c) * t_ref;
+  a[6] = s_ref - c * std::log(t_ref);
+  for (std::size_t i = 0; i < exact.t_k.size(); ++i) {
+    if (std::fabs(HOverRT(a, exact.t_k[i]) - exact.h_over_rt[i]) > kConstantCpCurveTolerance ||
+        std::fabs(SOverR(a, exact.t_k[i]) - exact.s_over_r[i]) > kConstantCpCurveTolerance) {
+      return std::nullopt;
+    }
+  }
+  return a;
+}
+
 }  // namespace
 
 std::string FitOptions::Validate() const {
@@ -630,6 +530,16 @@ std::string ToString(MidTemperatureMethod method) {
   return "";
 }
 
+// `value` with the fewest significant digits (at least 2) that print it differently from
+// `threshold` at the same precision, so that a miss never reads "0.5 % exceeds 0.5 %".
+std::string DigitsAbove(double value, double threshold) {
+  for (int digits = 2; digits < 17; ++digits) {
+    const std::string shown = fmt::format("{:.{}g}", value, digits);
+    if (shown != fmt::format("{:.{}g}", threshold, digits)) return shown;
+  }
+  return fmt::format("{}", value);
+}
+
 std::vector<std::string> ThresholdFailures(const RangeQuality& low_range,
                                            const RangeQuality& high_range,
                                            const QualityThresholds& thresholds) {
@@ -638,24 +548,120 @@ std::vector<std::string> ThresholdFailures(const RangeQuality& low_range,
                                                                 {"high", &high_range}};
   for (const auto& [name, quality] : ranges) {
     if (quality->max_cp_relative > thresholds.max_cp_relative) {
-      failures.push_back(fmt::format("{} range: max |dCp|/Cp = {:.2g} % at {:g} K exceeds {:g} %",
-                                     name, 100.0 * quality->max_cp_relative,
-                                     quality->max_cp_error_t_k,
-                                     100.0 * thresholds.max_cp_relative));
+      failures.push_back(fmt::format(
+          "{} range: max |dCp|/Cp = {} % at {:g} K exceeds {:g} %", name,
+          DigitsAbove(100.0 * quality->max_cp_relative, 100.0 * thresholds.max_cp_relative),
+          quality->max_cp_error_t_k, 100.0 * thresholds.max_cp_relative));
     }
     if (quality->max_h_over_rt > thresholds.max_h_over_rt) {
-      failures.push_back(fmt::format("{} range: max |dH|/RT = {:.2g} at {:g} K exceeds {:g}", name,
-                                     quality->max_h_over_rt, quality->max_h_error_t_k,
-                                     thresholds.max_h_over_rt));
+      failures.push_back(fmt::format("{} range: max |dH|/RT = {} at {:g} K exceeds {:g}", name,
+                                     DigitsAbove(quality->max_h_over_rt, thresholds.max_h_over_rt),
+                                     quality->max_h_error_t_k, thresholds.max_h_over_rt));
     }
     if (quality->max_s_over_r > thresholds.max_s_over_r) {
-      failures.push_back(fmt::format("{} range: max |dS|/R = {:.2g} at {:g} K exceeds {:g}", name,
-                                     quality->max_s_over_r, quality->max_s_error_t_k,
-                                     thresholds.max_s_over_r));
+      failures.push_back(fmt::format("{} range: max |dS|/R = {} at {:g} K exceeds {:g}", name,
+                                     DigitsAbove(quality->max_s_over_r, thresholds.max_s_over_r),
+                                     quality->max_s_error_t_k, thresholds.max_s_over_r));
     }
   }
   return failures;
 }
+
+std::string DescribeFormLimit(const FormLimit& limit) {
+  if (!limit.computed) return "";
+  if (!limit.AtFormLimit()) {
+    return fmt::format("a better fit of the form exists: the optimum reaches {:.3g} of the "
+                       "thresholds over this range",
+                       limit.best_threshold_ratio);
+  }
+  std::string text = fmt::format(
+      "at the form's limit: no 7-coefficient fit meets the thresholds over this range (best "
+      "achievable {:.3g} times the thresholds)",
+      limit.best_threshold_ratio);
+  if (limit.passing_range_found) {
+    text += fmt::format("; [{:g} K, {:g} K] would pass", limit.passing_t_low_k,
+                        limit.passing_t_high_k);
+  } else {
+    text += "; no narrower range tried passes";
+  }
+  return text;
+}
+
+namespace {
+
+// Steps of the bisection for the widest passing range on each side (each halves the interval of
+// grid indices: 8 steps resolve a grid of ~250 points to about one point).
+constexpr int kPassingRangeSteps = 8;
+
+// The worst error in units of the thresholds of the minimax optimum over grid points [begin, end)
+// of `exact`, at the mid temperature nearest `t_mid_k` that leaves enough points on each side;
+// guard off (the exact curves beyond a shrunk range are the grid's own points, not a guard
+// sample). Infinity when the sub-range is too short.
+double OptimumOverSubrange(const ExactCurves& exact, std::size_t begin, std::size_t end,
+                           const FitOptions& options, const QualityThresholds& thresholds,
+                           double t_mid_k) {
+  if (end - begin < 2 * static_cast<std::size_t>(kMinPointsPerRange) + 2) return HUGE_VAL;
+  ExactCurves sub;
+  sub.t_k.assign(exact.t_k.begin() + begin, exact.t_k.begin() + end);
+  sub.cp_over_r.assign(exact.cp_over_r.begin() + begin, exact.cp_over_r.begin() + end);
+  sub.h_over_rt.assign(exact.h_over_rt.begin() + begin, exact.h_over_rt.begin() + end);
+  sub.s_over_r.assign(exact.s_over_r.begin() + begin, exact.s_over_r.begin() + end);
+  FitOptions sub_options = options;
+  sub_options.extrapolation_guard.enabled = false;
+  sub_options.t_mid_k = std::clamp(t_mid_k, sub.t_k[kMinPointsPerRange],
+                                   sub.t_k[sub.t_k.size() - kMinPointsPerRange]);
+  const ErrorScales scales{thresholds.max_cp_relative, thresholds.max_h_over_rt,
+                           thresholds.max_s_over_r};
+  return FitMinimax(sub, sub_options, scales).max_error;
+}
+
+FormLimit ComputeFormLimit(const ExactCurves& exact, const FitOptions& options,
+                           const QualityThresholds& thresholds, double t_mid_k) {
+  FormLimit limit;
+  limit.computed = true;
+  const ErrorScales scales{thresholds.max_cp_relative, thresholds.max_h_over_rt,
+                           thresholds.max_s_over_r};
+  // The optimum of the same problem (same range, guard and mid-temperature setting) measured in
+  // units of the thresholds.
+  limit.best_threshold_ratio = FitMinimax(exact, options, scales).max_error;
+  if (!(limit.best_threshold_ratio > 1.0)) return limit;
+  // The widest passing range: by bisection on the top end with the bottom fixed, and on the
+  // bottom end with the top fixed; the wider of the two (in ln T) wins.
+  const std::size_t n = exact.t_k.size();
+  auto try_side = [&](bool move_top, std::size_t* best_begin, std::size_t* best_end) {
+    std::size_t passing = move_top ? 0 : n;  // an index known to pass, if any
+    std::size_t lo = 0, hi = n;               // bisection over the moving end
+    bool found = false;
+    for (int step = 0; step < kPassingRangeSteps && hi - lo > 1; ++step) {
+      const std::size_t mid = (lo + hi) / 2;
+      const double value = move_top ? OptimumOverSubrange(exact, 0, mid + 1, options, thresholds, t_mid_k)
+                                    : OptimumOverSubrange(exact, mid, n, options, thresholds, t_mid_k);
+      const bool passes = value <= 1.0;
+      if (passes) {
+        found = true;
+        passing = mid;
+      }
+      if (passes == move_top) lo = mid; else hi = mid;
+    }
+    if (!found) return false;
+    *best_begin = move_top ? 0 : passing;
+    *best_end = move_top ? passing + 1 : n;
+    return true;
+  };
+  std::size_t begin_a = 0, end_a = 0, begin_b = 0, end_b = 0;
+  const bool top = try_side(true, &begin_a, &end_a);
+  const bool bottom = try_side(false, &begin_b, &end_b);
+  auto width = [&](std::size_t b, std::size_t e) { return std::log(exact.t_k[e - 1] / exact.t_k[b]); };
+  if (top || bottom) {
+    const bool use_top = top && (!bottom || width(begin_a, end_a) >= width(begin_b, end_b));
+    limit.passing_range_found = true;
+    limit.passing_t_low_k = exact.t_k[use_top ? begin_a : begin_b];
+    limit.passing_t_high_k = exact.t_k[(use_top ? end_a : end_b) - 1];
+  }
+  return limit;
+}
+
+}  // namespace
 
 FitResult FitTwoRange(const ExactCurves& exact, const FitOptions& options,
                       const QualityThresholds& thresholds) {
@@ -664,19 +670,27 @@ FitResult FitTwoRange(const ExactCurves& exact, const FitOptions& options,
   }
   ValidateThresholds(thresholds);
   ValidateCurves(exact);
-  ConstrainedFitter fitter(exact, options, thresholds);
   const double t_low_k = exact.t_k.front(), t_high_k = exact.t_k.back();
+  if (options.t_mid_k && !(*options.t_mid_k > t_low_k && *options.t_mid_k < t_high_k)) {
+    throw Error(fmt::format("mid temperature {:g} K; expected strictly between {:g} K and {:g} K",
+                            *options.t_mid_k, t_low_k, t_high_k));
+  }
 
   FitResult result;
   Solution solution;
-  if (options.t_mid_k) {
-    if (!(*options.t_mid_k > t_low_k && *options.t_mid_k < t_high_k)) {
-      throw Error(fmt::format("mid temperature {:g} K; expected strictly between {:g} K and {:g} K",
-                              *options.t_mid_k, t_low_k, t_high_k));
-    }
-    solution = fitter.Solve(*options.t_mid_k);
+  if (options.objective == FitObjective::kMinimax) {
+    MinimaxFit fit = FitMinimax(exact, options, options.error_scales);
+    solution.polynomial = fit.polynomial;
+    solution.split = fit.split;
+    solution.objective = fit.max_error;
+    solution.max_normalised_error = fit.max_error;
+    result.certificate = std::move(fit.certificate);
+    result.mid_choice = fit.mid_choice;
+  } else if (options.t_mid_k) {
+    solution = LeastSquaresFitter(exact, options).Solve(*options.t_mid_k);
     result.mid_choice.method = MidTemperatureMethod::kFixed;
   } else {
+    LeastSquaresFitter fitter(exact, options);
     const double lowest_k = fitter.LowestMidK(), highest_k = fitter.HighestMidK();
     if (!(lowest_k < highest_k)) {
       throw Error(fmt::format("exact curves: {} grid points leave no room to choose a mid "
@@ -764,13 +778,34 @@ FitResult FitTwoRange(const ExactCurves& exact, const FitOptions& options,
     }
   }
 
+  const std::optional<NasaCoefficients> constant =
+      ConstantCpCoefficients(exact, options.pin_reference_state);
+  if (constant) {
+    solution.polynomial.low = *constant;
+    solution.polynomial.high = *constant;
+  }
   result.polynomial = solution.polynomial;
   result.objective = solution.objective;
   result.max_normalised_error = solution.max_normalised_error;
   result.quality.low_range = MeasureRangeQuality(solution.polynomial.low, exact, 0, solution.split);
   result.quality.high_range =
       MeasureRangeQuality(solution.polynomial.high, exact, solution.split, exact.t_k.size());
-  result.quality.threshold_failures = ThresholdFailures(result.quality.low_range, result.quality.high_range, thresholds);
+  result.quality.threshold_failures =
+      ThresholdFailures(result.quality.low_range, result.quality.high_range, thresholds);
+  if (constant) {
+    double worst = 0.0;
+    for (const RangeQuality* range : {&result.quality.low_range, &result.quality.high_range}) {
+      worst = std::max({worst, range->max_cp_relative / options.error_scales.cp_relative,
+                        range->max_h_over_rt / options.error_scales.h_over_rt,
+                        range->max_s_over_r / options.error_scales.s_over_r});
+    }
+    result.max_normalised_error = worst;
+    if (options.objective == FitObjective::kMinimax) result.objective = worst;
+  }
+  if (!result.quality.MeetsThresholds()) {
+    result.quality.form_limit =
+        ComputeFormLimit(exact, options, thresholds, solution.polynomial.t_mid_k);
+  }
   const double upper_cp_over_r =
       (options.num_atoms > 0
            ? ClassicalLimitCpOverR(options.num_atoms)
@@ -778,43 +813,6 @@ FitResult FitTwoRange(const ExactCurves& exact, const FitOptions& options,
       kExtrapolationUpperMargin;
   result.quality.extrapolation = CheckExtrapolation(solution.polynomial, upper_cp_over_r);
   return result;
-}
-
-std::vector<double> FitGrid(double t_low_k, double t_high_k) {
-  if (!(std::isfinite(t_low_k) && std::isfinite(t_high_k) && t_low_k > 0.0 &&
-        t_low_k < t_high_k)) {
-    throw Error(fmt::format("fit grid over [{:g} K, {:g} K]; expected 0 < t_low < t_high, finite",
-                            t_low_k, t_high_k));
-  }
-  // Step sizes, K, below each bound: fine where rotational and low vibrational structure lives.
-  struct Tier {
-    double start_k;
-    double end_k;
-    double step_k;
-  };
-  constexpr Tier kTiers[] = {{0.0, 100.0, 2.0},
-                             {100.0, 300.0, 5.0},
-                             {300.0, 1000.0, 10.0},
-                             {1000.0, 2000.0, 25.0},
-                             {2000.0, std::numeric_limits<double>::infinity(), 50.0}};
-  std::vector<double> grid{t_low_k};
-  for (const Tier& tier : kTiers) {
-    const double from_k = std::max(tier.start_k, t_low_k);
-    const double to_k = std::min(tier.end_k, t_high_k);
-    if (from_k >= to_k) continue;
-    // Integer multiples of the step: exact doubles, no accumulated rounding.
-    for (double m = std::ceil(from_k / tier.step_k);; m += 1.0) {
-      const double t_k = m * tier.step_k;
-      if (t_k >= to_k) break;
-      if (t_k > t_low_k) grid.push_back(t_k);
-    }
-  }
-  constexpr double kT = constants::kReferenceTemperature;
-  if (kT > t_low_k && kT < t_high_k) grid.push_back(kT);
-  grid.push_back(t_high_k);
-  std::sort(grid.begin(), grid.end());
-  grid.erase(std::unique(grid.begin(), grid.end()), grid.end());
-  return grid;
 }
 
 }  // namespace sevenfold

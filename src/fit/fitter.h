@@ -8,6 +8,7 @@
 #include <string>
 #include <vector>
 
+#include "fit/grid.h"
 #include "fit/polynomial.h"
 #include "fit/quality.h"
 #include "core/fit_settings.h"
@@ -22,7 +23,7 @@ struct FitOptions {
   ErrorScales error_scales;
   // Constraint on Cp beyond both ends of the range, inside the optimisation.
   ExtrapolationGuard extrapolation_guard;
-  // Mid temperature, K; empty means choose it automatically (scan + Ceres refinement).
+  // Mid temperature, K; empty means choose it automatically (docs/fitting.md).
   std::optional<double> t_mid_k;
   // Also make d2Cp/dT2 continuous at t_mid_k.
   bool continuous_second_derivative = false;
@@ -39,7 +40,8 @@ struct FitOptions {
 // How the mid temperature was chosen.
 enum class MidTemperatureMethod {
   kFixed,              // given in FitOptions::t_mid_k
-  kScanAndRefinement,  // best scan point refined by Ceres; the refined point won
+  kScanAndRefinement,  // best scan point refined (minimax: a 10 K scan around it; least squares:
+                       // Ceres); the refined point won
   kScanOnly,           // best scan point; the refinement was unusable or no better (see note)
 };
 // "fixed", "scan+refinement", "scan".
@@ -54,16 +56,32 @@ struct MidTemperatureChoice {
   std::string note;                 // why the refinement was not used, for kScanOnly
 };
 
+// The optimality certificate of a minimax fit (docs/fitting.md, "Optimality"): weights w >= 0
+// (sum 1) on the normalised in-range errors and multipliers mu >= 0 on the guard errors such that
+// the optimum^2 >= min over the equality-constrained coefficients of sum w e^2 + sum mu (q^2 - 1),
+// which is lower_bound^2. The achieved worst error over lower_bound bounds the distance from the
+// optimum. Empty for least squares.
+struct MinimaxCertificate {
+  double lower_bound = 0.0;
+  // One per normalised error, grid point by grid point: Cp, H, S (3 per point).
+  std::vector<double> weights;
+  // One per guard point (ExactCurves::guard_t_k), q = (Cp_fit - Cp_exact) / (band Cp_exact).
+  std::vector<double> multipliers;
+  bool guard_met = true;  // the fit keeps |q| <= 1 at every guard point
+  int num_iterations = 0;
+};
+
 struct FitResult {
   TwoRangePolynomial polynomial;
   FitQuality quality;
-  // The smooth measure of the worst error that the choice of t_mid minimises: the p-norm
-  // (p = 16, mean over all residuals) of the normalised residuals |dCp|/(Cp thr_cp),
-  // |dH|/(R T thr_h), |dS|/(R thr_s) over the whole grid. Computed for fixed t_mid too.
+  // The figure that the choice of t_mid minimises. Minimax: the largest normalised error
+  // |dCp|/(Cp scale_cp), |dH|/(R T scale_h), |dS|/(R scale_s) over the whole grid (ErrorScales).
+  // Least squares: the p-norm (p = 16, mean over all residuals) of the same errors.
   double objective = 0.0;
-  // The largest normalised residual over the whole grid (1 means "exactly at a threshold").
+  // The largest normalised error over the whole grid, in units of the error scales.
   double max_normalised_error = 0.0;
   MidTemperatureChoice mid_choice;
+  MinimaxCertificate certificate;
 };
 
 // Fits the exact curves (docs/fitting.md). Throws Error when the request is impossible
@@ -79,12 +97,10 @@ std::vector<std::string> ThresholdFailures(const RangeQuality& low_range,
                                            const RangeQuality& high_range,
                                            const QualityThresholds& thresholds);
 
-// The temperature grid on which the exact curves are sampled for a fit over [t_low_k, t_high_k]
-// (dense at low temperature, where rotor and vibrational structure lives; docs/fitting.md):
-// multiples of 2 K below 100 K, 5 K below 300 K, 10 K below 1000 K, 25 K below 2000 K and
-// 50 K above, strictly inside the range, plus both ends and 298.15 K when inside.
-// Throws Error unless 0 < t_low_k < t_high_k (both finite).
-std::vector<double> FitGrid(double t_low_k, double t_high_k);
+// One line on what the form can reach, for a fit that misses its thresholds: "a better fit of
+// the form exists: ..." or "at the form's limit: ... (best achievable 4.5 times the thresholds);
+// [200 K, 2450 K] would pass". Empty when not computed.
+std::string DescribeFormLimit(const FormLimit& limit);
 
 // Minimum grid points on each side of t_mid: more than the 7 coefficients of a range.
 inline constexpr int kMinPointsPerRange = 8;

@@ -20,6 +20,11 @@ struct ExactCurves {
   std::vector<double> cp_over_r;
   std::vector<double> h_over_rt;
   std::vector<double> s_over_r;
+  // Exact Cp/R beyond the range, for the extrapolation guard (FitOptions::extrapolation_guard):
+  // increasing temperatures below t_k.front() and above t_k.back(). Empty when the guard is off
+  // or the caller has no model there; quality figures never use these points.
+  std::vector<double> guard_t_k;
+  std::vector<double> guard_cp_over_r;
 };
 
 // Errors of one range against the exact curves over the grid points in that range

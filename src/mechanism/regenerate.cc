@@ -92,13 +92,25 @@ FitOptions FitOptionsFor(const Species& species, const RegenerateOptions& option
   return fit_options;
 }
 
-ExactCurves ExactCurvesFor(const Species& species, double* formation_enthalpy_j_per_mol) {
-  // Exact up to the top of the fit grid, and no further: hindered-rotor ladders then stop there.
-  const SpeciesThermo thermo(species, species.temperatures.high_k);
+ExactCurves ExactCurvesFor(const Species& species, const ExtrapolationGuard& guard,
+                           double* formation_enthalpy_j_per_mol) {
+  // Exact up to the top of the guard (or of the fit grid), and no further: hindered-rotor ladders
+  // then stop there. Guard points beyond the engine's range [kMinTemperatureK, kMaxTemperatureK]
+  // are left out: the guard then holds only where the exact model exists.
+  const std::vector<double> guard_t_k =
+      GuardGrid(species.temperatures.low_k, species.temperatures.high_k, guard);
+  const double top_k = std::min(
+      kMaxTemperatureK, guard_t_k.empty() ? species.temperatures.high_k : guard_t_k.back());
+  const SpeciesThermo thermo(species, std::max(top_k, species.temperatures.high_k));
   if (formation_enthalpy_j_per_mol != nullptr) {
     *formation_enthalpy_j_per_mol = thermo.FormationEnthalpy298JPerMol();
   }
   ExactCurves curves;
+  for (const double t : guard_t_k) {
+    if (t < kMinTemperatureK || t > kMaxTemperatureK) continue;
+    curves.guard_t_k.push_back(t);
+    curves.guard_cp_over_r.push_back(thermo.At(t).cp_j_per_mol_k / kGasConstant);
+  }
   curves.t_k = FitGrid(species.temperatures.low_k, species.temperatures.high_k);
   for (const double t : curves.t_k) {
     const ThermoPoint point = thermo.At(t);
@@ -139,9 +151,10 @@ std::vector<SpeciesFit> FitAllSpecies(const std::vector<Species>& species,
         SpeciesFit& result = results[i];
         result.species = &species[i];
         try {
-          result.exact = ExactCurvesFor(species[i], &result.formation_enthalpy_j_per_mol);
-          result.fit = FitTwoRange(result.exact, FitOptionsFor(species[i], options),
-                                   species[i].thresholds);
+          const FitOptions fit_options = FitOptionsFor(species[i], options);
+          result.exact = ExactCurvesFor(species[i], fit_options.extrapolation_guard,
+                                        &result.formation_enthalpy_j_per_mol);
+          result.fit = FitTwoRange(result.exact, fit_options, species[i].thresholds);
         } catch (const Error& e) {
           errors[i] = e.location().file.empty()
                           ? fmt::format("{}: species '{}': {}", species[i].location.ToString(),

@@ -78,11 +78,14 @@ void RecordCommittedSettings(const EntriesFile& committed, RegenerateOptions* op
 // The fit options a species gets under `options` (precedence: see RegenerateOptions::recorded).
 FitOptions FitOptionsFor(const Species& species, const RegenerateOptions& options);
 
-// Exact dimensionless curves of a species on the fit grid of its temperature range (the model
-// built exact up to the range's top only: see SpeciesThermo).
-// When formation_enthalpy_j_per_mol is not null it receives the model's dfH(298.15 K) (converted
-// from the species' 0 K value when that is what the file gives).
-ExactCurves ExactCurvesFor(const Species& species, double* formation_enthalpy_j_per_mol = nullptr);
+// Exact dimensionless curves of a species on the fit grid of its temperature range, plus exact
+// Cp/R at the guard points beyond it (GuardGrid; empty when the guard is off). The model is built
+// exact up to the guard's top only (see SpeciesThermo); guard points outside the engine's range
+// are left out. When formation_enthalpy_j_per_mol is not null it receives the model's
+// dfH(298.15 K) (converted from the species' 0 K value when that is what the file gives).
+ExactCurves ExactCurvesFor(const Species& species,
+                           const ExtrapolationGuard& guard = ExtrapolationGuard{},
+                           double* formation_enthalpy_j_per_mol = nullptr);
 
 // A one-line description of the physical model of a species (the fit settings are recorded in
 // fields of their own, EntryFitSettings); written into each entry's provenance so that a change
