@@ -337,7 +337,7 @@ TEST_CASE("automatic mid temperature is refined by Ceres and does at least as we
 constexpr double kMidSearchFactor = 1.02;
 
 TEST_CASE("automatic mid temperature of a minimax fit is within 2 % of the best on a 10 K scan",
-          "[fit]") {
+          "[fit][heavy]") {
   // The guard needs exact Cp beyond the range: the Einstein gas gives it.
   const EinsteinGas gas = CarbonDioxide();
   ExactCurves curves = gas.Sample(FitGrid(200.0, 6000.0));
@@ -535,7 +535,9 @@ TEST_CASE("every demo species fits continuously at T_mid and exactly at 298.15 K
       CHECK(RelativeDifference(SOverR(result.fit.polynomial, t), result.exact.s_over_r[i],
                                result.exact.s_over_r[i]) <= kConstraintTolerance);
     }
-    CHECK(result.fit.quality.MeetsThresholds());
+    // Over 200-6000 K some demo polyatomics cannot meet the thresholds in this form; such a fit
+    // must say so (at the form's limit), never fail while a better fit exists.
+    CHECK((result.fit.quality.MeetsThresholds() || result.fit.quality.form_limit.AtFormLimit()));
   }
 }
 
@@ -765,7 +767,7 @@ TEST_CASE("minimax fits of polyatomics over 200-6000 K are certified within 1.05
 }
 
 TEST_CASE("minimax fits of the demo and of invented species are certified within 1.05",
-          "[fit]") {
+          "[fit][heavy]") {
   std::vector<std::string> files;
   for (const auto& item : std::filesystem::directory_iterator(SEVENFOLD_SOURCE_DIR "/species")) {
     if (item.path().extension() == ".yaml") files.push_back(item.path().string());

@@ -565,12 +565,19 @@ TEST_CASE("demo fits agree with those made before the speed-ups, within the stat
   EntriesFile before = ReadEntriesFile(std::string(SEVENFOLD_SOURCE_DIR) +
                                        "/tests/data/demo-before-speedups.entries");
   REQUIRE(before.entries.size() == fits.size());
-  int same_mid = 0;
+  int same_mid = 0, num_compared = 0;
   for (const SpeciesFit& fit : fits) {
     const Species& one = *fit.species;
     INFO(one.name);
     const Entry& old = *FindEntry(before, one.name);
     const Entry now = MakeEntry(fit, options);
+    // The demo's polyatomics went back to the trade's 200-6000 K (issue 14) after the baseline
+    // was made: a species whose range changed is another fit problem, not comparable.
+    if (old.polynomial.t_low_k != now.polynomial.t_low_k ||
+        old.polynomial.t_high_k != now.polynomial.t_high_k) {
+      continue;
+    }
+    ++num_compared;
     const TwoRangePolynomial& p = now.polynomial;
     if (old.polynomial.t_mid_k == p.t_mid_k) {
       ++same_mid;
@@ -589,8 +596,10 @@ TEST_CASE("demo fits agree with those made before the speed-ups, within the stat
     const double worst_now = WorstNormalisedError(now.quality, one.thresholds);
     CHECK((worst_now <= worst_old * (1.0 + 2e-3) || std::max(worst_now, worst_old) < 1e-6));
   }
-  // Most mid temperatures are unchanged (seen: 33 of 36); the curve check must not be vacuous.
-  CHECK(same_mid >= 30);
+  // Most mid temperatures are unchanged (seen: 33 of 36 before the range change); the curve
+  // check must not be vacuous.
+  CHECK(num_compared >= 20);
+  CHECK(same_mid >= num_compared * 8 / 10);
 }
 
 }  // namespace
