@@ -75,7 +75,8 @@ bool FileParser::CheckFormat(const YAML::Node& root) {
     }
     return false;
   }
-  const YAML::Node& version = first->second;
+  // A copy: the iterator's -> yields a temporary pair, so a reference would dangle (ASan).
+  const YAML::Node version = first->second;
   if (!version.IsScalar() || version.Scalar() != std::to_string(kFormatVersion)) {
     Fail(version,
          std::string(kFormatKey),
