@@ -383,16 +383,6 @@ class Reader {
     head.Finish();
     entry.location = SourceLocation{file_, start.number, start.tokens[0].column};
 
-    static const char* const kRequired[] = {
-        kFieldComposition,      kFieldCharge,           kFieldPhase,
-        kFieldTemperatures,     kFieldCoefficientsLow,  kFieldCoefficientsHigh,
-        kFieldFormationEnthalpy, kFieldReferencePressure, kFieldFitObjective,
-        kFieldErrorScales,      kFieldExtrapolationGuard, kFieldTMidChoice,
-        kFieldCurvature,        kFieldGridPoints,       kFieldCpError,
-        kFieldHError,           kFieldSError,           kFieldGError,
-        kFieldExtrapolation,    kFieldFormLimit,        kFieldVerdict,
-        kFieldInputSha256,      kFieldToolVersion,      kFieldModel,
-        kFieldSource};
     std::map<std::string, int> seen;  // field -> line
     recorded_pass_ = true;
     recorded_at_limit_ = false;
@@ -448,7 +438,12 @@ class Reader {
       if (key.text == kFieldVerdict) verdict_column = key.column;
       ReadField(line, entry);
     }
-    for (const char* field : kRequired) {
+    for (const char* field : kAllFields) {
+      // Every field is required but the optional note and the repeatable failure lines.
+      if (field == std::string_view(kFieldExtrapolationNote) ||
+          field == std::string_view(kFieldFailure)) {
+        continue;
+      }
       if (seen.count(field) == 0) {
         Fail(start.number, start.tokens[0].column,
              fmt::format("found record {} without a \"{}\" line, expected one", species,
