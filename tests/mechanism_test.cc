@@ -258,10 +258,11 @@ TEST_CASE("check compares curves within a tolerance far above rounding", "[mecha
 }
 
 // Run for both objectives. KNOWN DEFECT (minimax, tagged [!mayfail] so that it stays visible in
-// the test output without failing ctest): Lawson's iteration amplifies rounding-level changes of
-// the curves along nearly flat directions of the minimax problem; H2O of the reference file moves
-// by ~1e-4 in Cp. The cure is an exchange step to the exact optimum (unique, so continuous in
-// the data) after the iteration; see docs/fitting.md, "Open problems".
+// the test output without failing ctest): the minimax optimum is not always unique. When one
+// range sets the worst error, the other keeps some freedom at the same worst error, and which of
+// the equally good solutions the exchange ends on can turn on a rounding-level change of the
+// curves; H2O of the reference file moves by ~7e-4 in Cp at 200 K. The cure is a second stage
+// that makes the solution unique (docs/fitting.md, "Open problems").
 void RequireRoundingInsensitive(FitObjective objective) {
   // What another compiler or libm could do: every exact value a couple of units in the last
   // place off (4e-16 relative, alternating in sign), refitted at the same mid temperature.
@@ -290,7 +291,7 @@ void RequireRoundingInsensitive(FitObjective objective) {
   }
   const CheckResult result = CheckEntries(perturbed, committed, base);
   CHECK(result.Passed());
-  CHECK(Summary(result).empty());
+  for (const Finding& finding : result.findings) FAIL_CHECK(finding.species + ": " + finding.message);
 }
 
 TEST_CASE("rounding-level changes of the exact curves are not a curve change (least squares)",

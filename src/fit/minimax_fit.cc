@@ -7,6 +7,7 @@
 #include <cmath>
 #include <cstddef>
 #include <limits>
+#include <utility>
 #include <vector>
 
 #include <fmt/format.h>
@@ -16,14 +17,12 @@
 namespace sevenfold::detail {
 namespace {
 
-// Relative duality gap at which the solve stops: the final fit is within 0.5 % of the optimum
-// of its problem; the candidates of the search within 1 %, enough to rank them (the search is
-// required to land within 2 % of the best mid temperature of a 10 K scan).
-constexpr double kFinalGap = 0.005;
+// Relative duality gap at which the solve stops: the final fit is the optimum of its problem
+// (the exchange stops at its vertex; a gap of 0 asks for nothing less); the candidates of the
+// search within 1 %, enough to rank them (the search is required to land within 2 % of the best
+// mid temperature of a 10 K scan).
+constexpr double kFinalGap = 0.0;
 constexpr double kSearchGap = 0.01;
-// Iteration cap of one solve. Lawson's iteration gains a roughly constant fraction of the gap per
-// step; the cap is far above what the demo and the invented sets need (docs/fitting.md).
-constexpr int kMaxIterations = 2000;
 // Candidates of the coarse scan, spaced geometrically over the admissible mid temperatures; then
 // every multiple of kRefineStepK between the best candidate's neighbours.
 constexpr int kNumScanPoints = 41;
@@ -55,6 +54,7 @@ class MinimaxProblemBuilder {
         guard_index_.push_back(j);
       }
     }
+    prepared_ = PrepareMinimaxRows(rows_, guard_rows_, guard_high_);
   }
 
   std::size_t Split(double t_mid_k) const {
@@ -67,15 +67,16 @@ class MinimaxProblemBuilder {
            n - split >= static_cast<std::size_t>(kMinPointsPerRange);
   }
 
-  MinimaxSolution Solve(double t_mid_k, double gap, const std::vector<double>& start) const {
+  MinimaxSolution Solve(double t_mid_k, double gap, const MinimaxSolution* warm_start) const {
     MinimaxProblem problem;
-    problem.rows = &rows_;
-    problem.split_row = 3 * Split(t_mid_k);
-    problem.guard_rows = &guard_rows_;
+    problem.rows = &prepared_;
+    problem.raw_rows = &rows_;
+    problem.raw_guard_rows = &guard_rows_;
     problem.guard_high = &guard_high_;
+    problem.split_row = 3 * Split(t_mid_k);
     BuildConstraints(t_mid_k, options_.continuous_second_derivative, reference_, problem.c,
                      problem.d);
-    return SolveMinimax(problem, gap, kMaxIterations, start);
+    return SolveMinimax(problem, gap, warm_start);
   }
 
   MinimaxFit Finish(double t_mid_k, const MinimaxSolution& solution) const {
@@ -107,6 +108,7 @@ class MinimaxProblemBuilder {
   std::vector<Row8> guard_rows_;
   std::vector<bool> guard_high_;
   std::vector<std::size_t> guard_index_;  // index into exact.guard_t_k of each guard row
+  MinimaxRows prepared_;
 };
 
 // The figure candidates are ranked by: the worst error, and a guard miss ranks last.
@@ -129,7 +131,7 @@ MinimaxFit FitMinimax(const ExactCurves& exact, const FitOptions& options,
           "least {} on each side",
           *options.t_mid_k, split, t.size() - split, kMinPointsPerRange));
     }
-    MinimaxFit fit = builder.Finish(*options.t_mid_k, builder.Solve(*options.t_mid_k, kFinalGap, {}));
+    MinimaxFit fit = builder.Finish(*options.t_mid_k, builder.Solve(*options.t_mid_k, kFinalGap, nullptr));
     fit.mid_choice.method = MidTemperatureMethod::kFixed;
     return fit;
   }
@@ -148,18 +150,18 @@ MinimaxFit FitMinimax(const ExactCurves& exact, const FitOptions& options,
     const double rounded = std::clamp(std::round(t_k), lowest_k, highest_k);
     if (candidates.empty() || rounded > candidates.back()) candidates.push_back(rounded);
   }
-  std::vector<double> weights;
+  MinimaxSolution previous;
   std::size_t best = 0;
   double best_rank = std::numeric_limits<double>::infinity();
-  std::vector<double> best_weights;
+  MinimaxSolution best_solution;
   for (std::size_t i = 0; i < candidates.size(); ++i) {
-    const MinimaxSolution solution = builder.Solve(candidates[i], kSearchGap, weights);
-    weights = solution.weights;
+    MinimaxSolution solution = builder.Solve(candidates[i], kSearchGap, i > 0 ? &previous : nullptr);
     if (Rank(solution) < best_rank) {
       best_rank = Rank(solution);
       best = i;
-      best_weights = solution.weights;
+      best_solution = solution;
     }
+    previous = std::move(solution);
   }
   MidTemperatureChoice choice;
   choice.num_scan_points = static_cast<int>(candidates.size());
@@ -173,7 +175,7 @@ MinimaxFit FitMinimax(const ExactCurves& exact, const FitOptions& options,
   for (double m = std::floor(lower_k / kRefineStepK) + 1.0; m * kRefineStepK < upper_k; m += 1.0) {
     const double t_k = m * kRefineStepK;
     if (t_k == candidates[best] || !builder.Admissible(t_k)) continue;
-    const MinimaxSolution solution = builder.Solve(t_k, kSearchGap, best_weights);
+    const MinimaxSolution solution = builder.Solve(t_k, kSearchGap, &best_solution);
     ++choice.num_refinement_iterations;
     if (Rank(solution) < best_rank) {
       best_rank = Rank(solution);
@@ -187,7 +189,7 @@ MinimaxFit FitMinimax(const ExactCurves& exact, const FitOptions& options,
   }
   // The final solve starts cold, as a fit fixed at chosen_k does: the same mid temperature then
   // gives the same bits whichever way it was reached (the check of committed entries relies on it).
-  MinimaxFit fit = builder.Finish(chosen_k, builder.Solve(chosen_k, kFinalGap, {}));
+  MinimaxFit fit = builder.Finish(chosen_k, builder.Solve(chosen_k, kFinalGap, nullptr));
   fit.mid_choice = choice;
   return fit;
 }
