@@ -48,20 +48,20 @@ MinimaxRows PrepareMinimaxRows(const std::vector<Row8>& rows, const std::vector<
     prepared.precondition[0] = Preconditioner(design.topRows(split));
     prepared.precondition[1] = Preconditioner(design.bottomRows(n - split));
   }
-  prepared.q.resize(7, n);
+  prepared.q.resize(n, 7);
   prepared.b.resize(n);
   for (Eigen::Index i = 0; i < n; ++i) {
     const int range = split > 0 && i >= split ? 1 : 0;
-    prepared.q.col(i) = (design.row(i) * prepared.precondition[range]).transpose();
+    prepared.q.row(i) = design.row(i) * prepared.precondition[range];
     prepared.b[i] = rows[static_cast<std::size_t>(i)][7];
   }
   const auto g = static_cast<Eigen::Index>(guard_rows.size());
-  prepared.q_guard.resize(7, g);
+  prepared.q_guard.resize(g, 7);
   prepared.b_guard.resize(g);
   for (Eigen::Index j = 0; j < g; ++j) {
     const Row8& row = guard_rows[static_cast<std::size_t>(j)];
     const int range = guard_high[static_cast<std::size_t>(j)] ? 1 : 0;
-    prepared.q_guard.col(j) = (row.head<7>() * prepared.precondition[range]).transpose();
+    prepared.q_guard.row(j) = row.head<7>() * prepared.precondition[range];
     prepared.b_guard[j] = row[7];
   }
   prepared.num_guard_low = static_cast<std::size_t>(
@@ -74,15 +74,15 @@ MinimaxRows PrepareMinimaxRows(const std::vector<Row8>& rows, const std::vector<
 void ReducedMinimax::Residuals(const Vector14& u, Vector& in_range, Vector& guard) const {
   const auto n = static_cast<Eigen::Index>(NumRows()), s = static_cast<Eigen::Index>(split);
   in_range.resize(n);
-  in_range.head(s).noalias() = rows->q.leftCols(s).transpose() * u.head<7>();
-  in_range.tail(n - s).noalias() = rows->q.rightCols(n - s).transpose() * u.tail<7>();
+  in_range.head(s).noalias() = rows->q.topRows(s) * u.head<7>();
+  in_range.tail(n - s).noalias() = rows->q.bottomRows(n - s) * u.tail<7>();
   in_range -= rows->b;
   const auto g = static_cast<Eigen::Index>(NumGuard());
   const auto g_low = static_cast<Eigen::Index>(rows->num_guard_low);
   guard.resize(g);
   if (g == 0) return;
-  guard.head(g_low).noalias() = rows->q_guard.leftCols(g_low).transpose() * u.head<7>();
-  guard.tail(g - g_low).noalias() = rows->q_guard.rightCols(g - g_low).transpose() * u.tail<7>();
+  guard.head(g_low).noalias() = rows->q_guard.topRows(g_low) * u.head<7>();
+  guard.tail(g - g_low).noalias() = rows->q_guard.bottomRows(g - g_low) * u.tail<7>();
   guard -= rows->b_guard;
 }
 

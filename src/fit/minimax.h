@@ -16,7 +16,8 @@
 namespace sevenfold::detail {
 
 using Matrix7 = Eigen::Matrix<double, 7, 7>;
-using Columns7 = Eigen::Matrix<double, 7, Eigen::Dynamic>;
+// One row per error, column-major: the errors at u are 7 contiguous multiply-adds of length n.
+using Rows7 = Eigen::Matrix<double, Eigen::Dynamic, 7>;
 
 // The rows of one species in a well-conditioned basis, built once and shared by every mid
 // temperature (only the split between the ranges and the constraints change).
@@ -25,10 +26,10 @@ struct MinimaxRows {
   // the QR of the range's rows, so that their columns are orthonormal. Rows shared by every mid
   // temperature use one factor for both ranges, from all rows.
   Matrix7 precondition[2] = {Matrix7::Identity(), Matrix7::Identity()};
-  Columns7 q;         // in-range rows in u, one column each, grid order (Cp, H, S per point)
+  Rows7 q;            // in-range rows in u, grid order (Cp, H, S per point)
   Eigen::VectorXd b;  // their right-hand sides
   // Guard rows q_j = (Cp_fit - Cp_exact) / (band Cp_exact), |q_j| <= 1: the low range's first.
-  Columns7 q_guard;
+  Rows7 q_guard;
   Eigen::VectorXd b_guard;
   std::size_t num_guard_low = 0;
 };

@@ -40,8 +40,14 @@ constexpr double kRoundingExcess = 1e-6;
 // In the ratio test, a component of the entering row's coordinates below this fraction of the
 // largest is zero (rounding), not a direction that could free a reference row.
 constexpr double kPivotTolerance = 1e-12;
-// A reference system worse conditioned than this is singular: the exchange gives up.
-constexpr double kMinReciprocalCondition = 1e-14;
+// A reference system whose LU has pivots further apart than this ratio is singular: the exchange
+// gives up (the pivot ratio is a cheap stand-in for the reciprocal condition number).
+constexpr double kMinPivotRatio = 1e-13;
+
+bool Singular(const Eigen::PartialPivLU<Small>& lu) {
+  const auto pivots = lu.matrixLU().diagonal().cwiseAbs();
+  return !(pivots.minCoeff() > kMinPivotRatio * pivots.maxCoeff());
+}
 // Steps per unknown before the exchange gives up (cycling on a degenerate problem); the demo and
 // the invented sets need a few per unknown from a cold start (docs/fitting.md).
 constexpr int kMaxStepsPerUnknown = 40;
@@ -50,7 +56,7 @@ constexpr int kMaxStepsPerUnknown = 40;
 void RowInV(const ReducedMinimax& reduced, const ReferenceRow& row, SmallVector& p, double& e) {
   const MinimaxRows& rows = *reduced.rows;
   const auto index = static_cast<Eigen::Index>(row.index);
-  const Eigen::Matrix<double, 7, 1> q = row.guard ? rows.q_guard.col(index) : rows.q.col(index);
+  const Eigen::Matrix<double, 7, 1> q = row.guard ? rows.q_guard.row(index).transpose() : rows.q.row(index).transpose();
   const double b = row.guard ? rows.b_guard[index] : rows.b[index];
   const bool high = row.guard ? row.index >= rows.num_guard_low : row.index >= reduced.split;
   const int offset = high ? 7 : 0;
@@ -84,7 +90,7 @@ double ReferenceLevel(const ReducedMinimax& reduced, const std::vector<Reference
   SmallVector levels;
   BuildReferenceSystem(reduced, reference, signs, system, levels);
   const Eigen::PartialPivLU<Small> lu(system);
-  if (!(lu.rcond() > kMinReciprocalCondition)) return -std::numeric_limits<double>::infinity();
+  if (Singular(lu)) return -std::numeric_limits<double>::infinity();
   return lu.solve(levels)[reduced.m];
 }
 
@@ -131,9 +137,9 @@ std::vector<ReferenceRow> ColdReference(const ReducedMinimax& reduced) {
   const auto n = static_cast<Eigen::Index>(reduced.NumRows());
   const auto s = static_cast<Eigen::Index>(reduced.split);
   Eigen::MatrixXd p(m, n);
-  p.leftCols(s).noalias() = reduced.null_space.topRows<7>().transpose() * rows.q.leftCols(s);
+  p.leftCols(s).noalias() = reduced.null_space.topRows<7>().transpose() * rows.q.topRows(s).transpose();
   p.rightCols(n - s).noalias() =
-      reduced.null_space.bottomRows<7>().transpose() * rows.q.rightCols(n - s);
+      reduced.null_space.bottomRows<7>().transpose() * rows.q.bottomRows(n - s).transpose();
   const Eigen::ColPivHouseholderQR<Eigen::MatrixXd> qr(p);
   std::vector<ReferenceRow> reference;
   Small chosen(m, m);
@@ -214,7 +220,7 @@ bool SolveByExchange(const ReducedMinimax& reduced, double gap,
     // a guard row, in the unknowns (v, t).
     BuildReferenceSystem(reduced, reference, signs, system, levels);
     const Eigen::PartialPivLU<Small> lu(system);
-    if (!(lu.rcond() > kMinReciprocalCondition)) return false;
+    if (Singular(lu)) return false;
     const SmallVector y = lu.solve(levels);
     // The multipliers: system^T lambda = -e_t (stationarity in v and t of the restricted problem).
     const SmallVector lambda = lu.transpose().solve(unit_t);

@@ -24,8 +24,8 @@ namespace {
 constexpr double kFinalGap = 0.0;
 constexpr double kSearchGap = 0.01;
 // Candidates of the coarse scan, spaced geometrically over the admissible mid temperatures; then
-// every multiple of kRefineStepK between the best candidate's neighbours.
-constexpr int kNumScanPoints = 41;
+// a pattern search on the multiples of kRefineStepK between the best candidate's neighbours.
+constexpr int kNumScanPoints = 21;
 constexpr double kRefineStepK = 10.0;
 
 class MinimaxProblemBuilder {
@@ -168,19 +168,35 @@ MinimaxFit FitMinimax(const ExactCurves& exact, const FitOptions& options,
   choice.scan_best_t_mid_k = candidates[best];
   choice.scan_best_objective = best_rank;
   choice.method = MidTemperatureMethod::kScanOnly;
-  // Refinement: every multiple of kRefineStepK strictly between the neighbours of the best.
+  // Refinement: a pattern search on the multiples of kRefineStepK strictly between the
+  // neighbours of the best: try the centre +- the step, move to the better, halve the step down to
+  // kRefineStepK (about 2 log2(width / 10 K) solves instead of one per multiple).
   const double lower_k = candidates[best > 0 ? best - 1 : 0];
   const double upper_k = candidates[std::min(best + 1, candidates.size() - 1)];
+  const auto on_lattice = [](double t_k) { return std::round(t_k / kRefineStepK) * kRefineStepK; };
   double chosen_k = candidates[best];
-  for (double m = std::floor(lower_k / kRefineStepK) + 1.0; m * kRefineStepK < upper_k; m += 1.0) {
-    const double t_k = m * kRefineStepK;
-    if (t_k == candidates[best] || !builder.Admissible(t_k)) continue;
-    const MinimaxSolution solution = builder.Solve(t_k, kSearchGap, &best_solution);
-    ++choice.num_refinement_iterations;
-    if (Rank(solution) < best_rank) {
-      best_rank = Rank(solution);
-      chosen_k = t_k;
+  std::vector<double> tried = {chosen_k};
+  double step_k = std::max(kRefineStepK, on_lattice((upper_k - lower_k) / 4.0));
+  for (;;) {
+    const double centre_k = chosen_k;
+    for (const double direction : {-1.0, 1.0}) {
+      const double t_k = on_lattice(centre_k + direction * step_k);
+      if (t_k <= lower_k || t_k >= upper_k || !builder.Admissible(t_k) ||
+          std::find(tried.begin(), tried.end(), t_k) != tried.end()) {
+        continue;
+      }
+      tried.push_back(t_k);
+      MinimaxSolution solution = builder.Solve(t_k, kSearchGap, &best_solution);
+      ++choice.num_refinement_iterations;
+      if (Rank(solution) < best_rank) {
+        best_rank = Rank(solution);
+        chosen_k = t_k;
+        best_solution = std::move(solution);
+      }
     }
+    if (chosen_k != centre_k) continue;  // moved: try the same step around the new centre
+    if (step_k <= kRefineStepK) break;
+    step_k = std::max(kRefineStepK, on_lattice(step_k / 2.0));
   }
   if (chosen_k != candidates[best]) {
     choice.method = MidTemperatureMethod::kScanAndRefinement;

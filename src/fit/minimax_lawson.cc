@@ -64,22 +64,22 @@ MinimaxSolution SolveByLawson(const ReducedMinimax& reduced, double gap, int max
     // The weighted normal equations in u (block diagonal plus the guard rows), reduced to v.
     Matrix14 normal = Matrix14::Zero();
     Vector14 rhs = Vector14::Zero();
-    normal.topLeftCorner<7, 7>() = rows.q.leftCols(s) * w.head(s).asDiagonal() * rows.q.leftCols(s).transpose();
+    normal.topLeftCorner<7, 7>() = rows.q.topRows(s).transpose() * w.head(s).asDiagonal() * rows.q.topRows(s);
     normal.bottomRightCorner<7, 7>() =
-        rows.q.rightCols(ni - s) * w.tail(ni - s).asDiagonal() * rows.q.rightCols(ni - s).transpose();
-    rhs.head<7>() = rows.q.leftCols(s) * w.head(s).cwiseProduct(rows.b.head(s));
-    rhs.tail<7>() = rows.q.rightCols(ni - s) * w.tail(ni - s).cwiseProduct(rows.b.tail(ni - s));
+        rows.q.bottomRows(ni - s).transpose() * w.tail(ni - s).asDiagonal() * rows.q.bottomRows(ni - s);
+    rhs.head<7>() = rows.q.topRows(s).transpose() * w.head(s).cwiseProduct(rows.b.head(s));
+    rhs.tail<7>() = rows.q.bottomRows(ni - s).transpose() * w.tail(ni - s).cwiseProduct(rows.b.tail(ni - s));
     const double s2 = guard_scale * guard_scale;
     if (g > 0 && s2 > 0.0) {
       const Vector mu_s = mu * s2;
-      normal.topLeftCorner<7, 7>() += rows.q_guard.leftCols(gl) * mu_s.head(gl).asDiagonal() *
-                                      rows.q_guard.leftCols(gl).transpose();
-      normal.bottomRightCorner<7, 7>() += rows.q_guard.rightCols(g - gl) *
+      normal.topLeftCorner<7, 7>() += rows.q_guard.topRows(gl).transpose() * mu_s.head(gl).asDiagonal() *
+                                      rows.q_guard.topRows(gl);
+      normal.bottomRightCorner<7, 7>() += rows.q_guard.bottomRows(g - gl).transpose() *
                                           mu_s.tail(g - gl).asDiagonal() *
-                                          rows.q_guard.rightCols(g - gl).transpose();
-      rhs.head<7>() += rows.q_guard.leftCols(gl) * mu_s.head(gl).cwiseProduct(rows.b_guard.head(gl));
+                                          rows.q_guard.bottomRows(g - gl);
+      rhs.head<7>() += rows.q_guard.topRows(gl).transpose() * mu_s.head(gl).cwiseProduct(rows.b_guard.head(gl));
       rhs.tail<7>() +=
-          rows.q_guard.rightCols(g - gl) * mu_s.tail(g - gl).cwiseProduct(rows.b_guard.tail(g - gl));
+          rows.q_guard.bottomRows(g - gl).transpose() * mu_s.tail(g - gl).cwiseProduct(rows.b_guard.tail(g - gl));
     }
     const Matrix reduced_normal = null_space.transpose() * normal * null_space;
     const Vector reduced_rhs = null_space.transpose() * (rhs - normal * u_particular);
