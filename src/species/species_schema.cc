@@ -167,7 +167,7 @@ std::vector<KeySpec> BuildTable() {
       {S::kTabulatedCp, "reference-entropy", "[T, S]", "K, J/(mol K)",
        fmt::format("S > 0, at most {} J/(mol K)", kMaxTabulatedEntropyJPerMolK), "",
        "with rows of two columns", ""},
-      {S::kTabulatedCp, "cp-zero", "number", "J/(mol K)", "> 0, below cp-infinity", "", "no",
+      {S::kTabulatedCp, "cp-zero", "number", "J/(mol K)", ">= 0 (0 for a solid), below cp-infinity", "", "no",
        "2.5 R atom, 3.5 R linear, 4 R nonlinear"},
       {S::kTabulatedCp, "cp-infinity", "number", "J/(mol K)", "> cp-zero", "", "no",
        "2.5 R atom, (3N - 1.5) R linear, (3N - 2) R nonlinear"},
