@@ -8,6 +8,7 @@
 #include <limits>
 #include <sstream>
 #include <string>
+#include <tuple>
 #include <vector>
 
 #include <catch2/catch.hpp>
@@ -20,6 +21,7 @@
 #include "mechanism/regenerate.h"
 #include "species/species.h"
 #include "species/species_reader.h"
+#include "statmech/species_thermo.h"
 
 namespace sevenfold {
 namespace {
@@ -601,6 +603,82 @@ TEST_CASE("demo fits agree with those made before the speed-ups, within the stat
   // check must not be vacuous.
   CHECK(num_compared >= 20);
   CHECK(same_mid >= num_compared * 8 / 10);
+}
+
+// The tabulated path against the molecular one: CO2 (constants from memory of the NIST
+// Chemistry WebBook, as in tests/data/reference-species.yaml) tabulated from its exact curves,
+// read back through the species reader and fitted like any other species.
+TEST_CASE("a species fitted from its own tabulated curves gets the same polynomial",
+          "[mechanism]") {
+  const std::string head =
+      "sevenfold-species: 2\n"
+      "defaults:\n  fit-temperatures: {low: 200, mid: 1000, high: 6000}\n"
+      "species:\n";
+  const std::string molecular =
+      "  CO2:\n    formula: CO2\n    formation-enthalpy: -393.51 kJ/mol\n    shape: linear\n"
+      "    symmetry-number: 2\n    rotational-constants: [0.39021]\n"
+      "    vibrations: [1333.0, 667.4, 667.4, 2349.2]\n";
+  const Species co2 = ReadSpeciesText(head + molecular, "co2.yaml").at(0);
+  const SpeciesThermo exact(co2);
+  // Rows every 50 K over the whole fit range, and rows over 300-3000 K only: the fit's range then
+  // reaches beyond the table on both sides, where the Wilhoit form takes over.
+  const auto table = [&](const std::string& label, double from_k, double to_k) {
+    std::ostringstream text;
+    text.precision(17);
+    text << "  " << label << ":\n    formula: CO2\n    formation-enthalpy: -393.51 kJ/mol\n"
+         << "    shape: linear\n    tabulated-cp:\n      reference-entropy: [298.15, "
+         << exact.At(298.15).s_j_per_mol_k << "]\n      points:\n";
+    for (double t = from_k; t <= to_k + 1e-9; t += 50.0) {
+      text << "        - [" << t << ", " << exact.At(t).cp_j_per_mol_k << "]\n";
+    }
+    return text.str();
+  };
+  const std::vector<Species> species = ReadSpeciesText(
+      head + molecular + table("CO2-full", 200.0, 6000.0) + table("CO2-part", 300.0, 3000.0),
+      "co2.yaml");
+  REQUIRE(species.size() == 3);
+  REQUIRE(species[1].tabulated.has_value());
+  const std::vector<SpeciesFit> fits = FitAllSpecies(species, Jobs(2));
+  const TwoRangePolynomial& reference = fits[0].fit.polynomial;
+  // Rows 50 K apart move Cp by about 1e-5 relative on CO2 (the h^3 scaling of the bound at
+  // 50-100 K spacing in tests/statmech_test.cc); two best fits to curves that close differ by a
+  // few times that at most.
+  constexpr double kFullCp = 2e-4, kFullHOverRT = 1e-4, kFullSOverR = 1e-4;
+  // Beyond a table of 300-3000 K the Wilhoit form is an extrapolation, not CO2's physics: above
+  // 3000 K both approach the classical 7.5 R (CO2's Cp is within 2 % of it there), below 300 K
+  // the table cannot tell where the bending mode freezes out (docs/theory.md, section 12: 1.5 %
+  // in Cp at 200 K, seen); 2 % bounds it, and H/RT, S/R carry it over (1.2e-2 seen).
+  constexpr double kPartCp = 2e-2, kPartHOverRT = 2e-2, kPartSOverR = 2e-2;
+  struct Case {
+    std::size_t index;
+    double cp_relative, h_over_rt, s_over_r;
+  };
+  for (const Case& c : {Case{1, kFullCp, kFullHOverRT, kFullSOverR},
+                        Case{2, kPartCp, kPartHOverRT, kPartSOverR}}) {
+    INFO(species[c.index].name);
+    const TwoRangePolynomial& p = fits[c.index].fit.polynomial;
+    CHECK(p.t_mid_k == reference.t_mid_k);
+    for (double t = 200.0; t <= 6000.0; t += 25.0) {
+      INFO(t);
+      CHECK_THAT(CpOverR(p, t), Catch::Matchers::WithinRel(CpOverR(reference, t), c.cp_relative));
+      CHECK(std::abs(HOverRT(p, t) - HOverRT(reference, t)) <= c.h_over_rt);
+      CHECK(std::abs(SOverR(p, t) - SOverR(reference, t)) <= c.s_over_r);
+    }
+  }
+  // The coefficients of the full table's fit: each range's Cp terms a_k T^(k-1) at the range's
+  // upper end (the terms of a best fit are strongly correlated, so they are compared as the sum
+  // of their moves, against 100 times the curve tolerance), a6/T against H/RT, a7 against S/R.
+  constexpr double kTermCorrelation = 100.0;
+  const TwoRangePolynomial& full = fits[1].fit.polynomial;
+  for (const auto& [a, b, t_top] : {std::tuple{full.low, reference.low, full.t_mid_k},
+                                    std::tuple{full.high, reference.high, full.t_high_k}}) {
+    INFO(t_top);
+    double power = 1.0, moved = 0.0;
+    for (int k = 0; k < 5; ++k, power *= t_top) moved += std::abs(a[k] - b[k]) * power;
+    CHECK(moved <= kTermCorrelation * kFullCp * CpOverR(reference, t_top));
+    CHECK(std::abs(a[5] - b[5]) / t_top <= kTermCorrelation * kFullHOverRT);
+    CHECK(std::abs(a[6] - b[6]) <= kTermCorrelation * kFullSOverR);
+  }
 }
 
 }  // namespace

@@ -1540,4 +1540,68 @@ TEST_CASE("the documented keys, bands, defaults and tolerances are the code's", 
   CHECK(ReadSpeciesText(text, "example.yaml").size() == 8);
 }
 
+namespace {
+// A tabulated species (Cp rows of CO2 from the JANAF Thermochemical Tables, 4th ed., Chase
+// 1998, to 0.001 J/(mol K), from memory); `rows` replaces the points list.
+std::string TabulatedText(const std::string& rows, const std::string& extra = "") {
+  return "sevenfold-species: 2\n"            // 1
+         "species:\n"                        // 2
+         "  CO2-table:\n"                    // 3
+         "    formula: CO2\n"                // 4
+         "    formation-enthalpy: -393.51\n" // 5
+         "    shape: linear\n"               // 6
+         "    tabulated-cp:\n"               // 7
+         "      reference-entropy: [298.15, 213.795]\n"  // 8
+         "      points:\n" +                 // 9
+         rows + extra;
+}
+const std::string kCo2Rows =
+    "        - [298.15, 37.135]\n"  // 10
+    "        - [400, 41.325]\n"     // 11
+    "        - [500, 44.627]\n"     // 12
+    "        - [600, 47.327]\n";    // 13
+
+TEST_CASE("a tabulated species is read with its rows and entropy anchor", "[species]") {
+  const Species co2 = ReadSpeciesText(TabulatedText(kCo2Rows), "t.yaml").at(0);
+  REQUIRE(co2.tabulated.has_value());
+  CHECK(co2.tabulated->t_k == std::vector<double>{298.15, 400, 500, 600});
+  CHECK(co2.tabulated->cp_j_per_mol_k == std::vector<double>{37.135, 41.325, 44.627, 47.327});
+  CHECK(co2.tabulated->entropy_t_k == 298.15);
+  CHECK(co2.tabulated->entropy_j_per_mol_k == 213.795);
+  CHECK(co2.tabulated->h_minus_h298_j_per_mol.empty());
+  CHECK(co2.tabulated->row_locations.at(1).line == 11);
+  CHECK(co2.formation_enthalpy_j_per_mol == -393510.0);
+}
+
+TEST_CASE("bad tabulated-cp input is reported at its place", "[species]") {
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(TabulatedText("        - [298.15, 37.135]\n        - [400, 41.325]\n"),
+                      "t.yaml"),
+      Contains("t.yaml:10:9: species 'CO2-table': tabulated-cp.points: 2 rows; expected 3 to "
+               "10000 rows"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(TabulatedText("        - [298.15, 37.135]\n        - [500, 41.325]\n"
+                                    "        - [400, 44.627]\n"),
+                      "t.yaml"),
+      Contains("t.yaml:12:12: species 'CO2-table': tabulated-cp.points[2][0]: 400 K after 500 K "
+               "in the row before; expected temperatures strictly increasing"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(TabulatedText("        - [298.15, 37.135]\n        - [400, -41.325]\n"
+                                    "        - [500, 44.627]\n"),
+                      "t.yaml"),
+      Contains("t.yaml:11:17: species 'CO2-table': tabulated-cp.points[1][1]: -41.325; expected "
+               "a heat capacity Cp in J/(mol K) within [0, 100000]"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(TabulatedText("        - [298.15, 37.135, 0]\n" + kCo2Rows), "t.yaml"),
+      Contains("t.yaml:10:11: species 'CO2-table': tabulated-cp.points[0]: a list of 3 items; "
+               "expected a row [T, Cp] or [T, Cp, H-H298, S]"));
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText(TabulatedText(kCo2Rows, "    vibrations: [1333, 667, 667, 2349]\n"),
+                      "t.yaml"),
+      Contains("t.yaml:14:5: species 'CO2-table': vibrations: given together with tabulated-cp; "
+               "expected either molecular data or tabulated-cp, not both"));
+}
+
+}  // namespace
+
 }  // namespace sevenfold

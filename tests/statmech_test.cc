@@ -22,6 +22,7 @@
 #include "statmech/nuclear_spin.h"
 #include "statmech/rotor.h"
 #include "statmech/species_thermo.h"
+#include "statmech/tabulated_cp.h"
 #include "statmech/torsion.h"
 #include "statmech/translation.h"
 #include "statmech/tridiagonal.h"
@@ -1295,6 +1296,144 @@ TEST_CASE("spin-multiplicity gives the same tables as an explicit ground level",
   singlet.electronic_levels = {{0.0, 1.0}};
   CHECK_THAT(a.At(298.15).s_j_per_mol_k - SpeciesThermo(singlet).At(298.15).s_j_per_mol_k,
              Catch::Matchers::WithinRel(kGasConstant * std::log(2.0), 1e-12));
+}
+
+// A species given by tabulated-cp, with rows from another species' exact curves.
+Species TabulatedFrom(const Species& source, const std::vector<double>& t_k) {
+  const SpeciesThermo thermo(source);
+  Species species;
+  species.name = source.name + "-table";
+  species.composition = source.composition;
+  species.shape = source.shape;
+  species.formation_enthalpy_j_per_mol = source.formation_enthalpy_j_per_mol;
+  TabulatedCp table;
+  for (const double t : t_k) {
+    table.t_k.push_back(t);
+    table.cp_j_per_mol_k.push_back(thermo.At(t).cp_j_per_mol_k);
+  }
+  table.entropy_t_k = constants::kReferenceTemperature;
+  table.entropy_j_per_mol_k = thermo.At(constants::kReferenceTemperature).s_j_per_mol_k;
+  species.tabulated = table;
+  return species;
+}
+
+std::vector<double> Steps(double from_k, double to_k, double step_k) {
+  std::vector<double> t;
+  for (double x = from_k; x <= to_k + 1e-9; x += step_k) t.push_back(x);
+  return t;
+}
+
+// Linear data are reproduced exactly by the shape-preserving cubic (its slopes are the data's
+// slope), so H and S must equal the closed-form integrals of a + b T to rounding.
+TEST_CASE("tabulated Cp linear in T gives the closed-form integrals of H and S", "[statmech]") {
+  constexpr double kA = 30.0, kB = 0.01;  // J/(mol K), J/(mol K^2)
+  constexpr double kRounding = 1e-12;     // relative: closed-form integrals, double precision
+  Species species = Nitrogen();
+  species.name = "linear-cp";
+  TabulatedCp table;
+  for (const double t : {250.0, 300.0, 420.0, 700.0, 1000.0, 1500.0}) {
+    table.t_k.push_back(t);
+    table.cp_j_per_mol_k.push_back(kA + kB * t);
+  }
+  table.entropy_t_k = 300.0;
+  table.entropy_j_per_mol_k = 200.0;
+  species.tabulated = table;
+  const SpeciesThermo thermo(species);
+  const double t0 = constants::kReferenceTemperature;
+  for (const double t : {250.0, 298.15, 333.3, 999.0, 1500.0}) {
+    const ThermoPoint p = thermo.At(t);
+    CHECK_THAT(p.cp_j_per_mol_k, Catch::Matchers::WithinRel(kA + kB * t, kRounding));
+    const double h = kA * (t - t0) + 0.5 * kB * (t * t - t0 * t0);
+    CHECK(std::abs(p.h_minus_h298_j_per_mol - h) <= kRounding * (std::abs(h) + kA * t));
+    const double s = 200.0 + kA * std::log(t / 300.0) + kB * (t - 300.0);
+    CHECK_THAT(p.s_j_per_mol_k, Catch::Matchers::WithinRel(s, kRounding));
+  }
+}
+
+// The Wilhoit extrapolation meets the table with the same value, and its H and S are the
+// integrals of its Cp (checked by central differences: dH/dT = Cp, dS/dT = Cp/T).
+TEST_CASE("Wilhoit extrapolation joins the table and keeps H and S consistent", "[statmech]") {
+  const Species species = TabulatedFrom(CarbonDioxide(), Steps(300.0, 3000.0, 100.0));
+  const TabulatedCurves curves(species);
+  constexpr double kJoin = 1e-9;  // relative: continuity at the table's ends, rounding only
+  for (const double edge : {300.0, 3000.0}) {
+    CHECK_THAT(curves.Cp(edge * (1 + 1e-12)),
+               Catch::Matchers::WithinRel(curves.Cp(edge * (1 - 1e-12)), kJoin));
+    CHECK_THAT(curves.IntegralCp(edge * (1 + 1e-12)),
+               Catch::Matchers::WithinAbs(curves.IntegralCp(edge * (1 - 1e-12)), 1e-6));
+  }
+  // Central differences with a step of 1e-3 K: truncation near Cp'' h^2 / 6 ~ 1e-12, rounding
+  // near 1e-16 H / h ~ 1e-8 J/(mol K); 1e-6 relative bounds both.
+  constexpr double kDerivative = 1e-6;
+  constexpr double kStepK = 1e-3;
+  for (const double t : {50.0, 150.0, 250.0, 3500.0, 6000.0, 15000.0}) {
+    const ThermoPoint up = curves.At(t + kStepK), down = curves.At(t - kStepK);
+    const double cp = curves.Cp(t);
+    CHECK_THAT((up.h_minus_h298_j_per_mol - down.h_minus_h298_j_per_mol) / (2 * kStepK),
+               Catch::Matchers::WithinRel(cp, kDerivative));
+    CHECK_THAT((up.s_j_per_mol_k - down.s_j_per_mol_k) / (2 * kStepK),
+               Catch::Matchers::WithinRel(cp / t, kDerivative));
+    CHECK(cp > 0.0);
+  }
+  // The limits: Cp(0) = 3.5 R and Cp(inf) = (3N - 1.5) R for a linear molecule (equipartition,
+  // common practice).
+  CHECK_THAT(WilhoitCpZero(Shape::kLinear), Catch::Matchers::WithinRel(3.5 * kGasConstant, 1e-15));
+  CHECK_THAT(WilhoitCpInfinity(Shape::kLinear, 3),
+             Catch::Matchers::WithinRel(7.5 * kGasConstant, 1e-15));
+  CHECK_THAT(curves.Cp(1.0e7), Catch::Matchers::WithinRel(7.5 * kGasConstant, 1e-3));
+  CHECK_THAT(curves.Cp(1.0e-3), Catch::Matchers::WithinRel(3.5 * kGasConstant, 1e-3));
+}
+
+// Tabulating CO2's exact curves with rows 50 K apart up to 1000 K and 100 K apart above (the
+// spacing of evaluated tables) and reading them as a tabulated species gives the same curves. A
+// cubic Hermite with three-point slopes errs by about h^3 |d3Cp/dT3| / 24, a few 1e-4 of Cp near
+// 200 K where CO2's bend mode makes Cp bend fastest; S and H carry that error from 298.15 K on.
+TEST_CASE("a tabulated species reproduces the exact curves it was tabulated from", "[statmech]") {
+  constexpr double kInsideCp = 5e-4;
+  constexpr double kInsideHOverRT = 3e-4;
+  constexpr double kInsideSOverR = 3e-4;
+  const Species source = CarbonDioxide();
+  const SpeciesThermo exact(source);
+  std::vector<double> rows = Steps(200.0, 1000.0, 50.0);
+  for (const double t : Steps(1100.0, 6000.0, 100.0)) rows.push_back(t);
+  const SpeciesThermo tabulated(TabulatedFrom(source, rows));
+  for (double t = 210.0; t < 6000.0; t += 37.0) {
+    const ThermoPoint a = exact.At(t), b = tabulated.At(t);
+    CHECK_THAT(b.cp_j_per_mol_k, Catch::Matchers::WithinRel(a.cp_j_per_mol_k, kInsideCp));
+    CHECK(std::abs(b.h_minus_h298_j_per_mol - a.h_minus_h298_j_per_mol) / (kGasConstant * t) <=
+          kInsideHOverRT);
+    CHECK(std::abs(b.s_j_per_mol_k - a.s_j_per_mol_k) / kGasConstant <= kInsideSOverR);
+  }
+}
+
+// Rows with H - H298 and S columns, here the closed-form integrals of Cp = 30 + 0.01 T written
+// to the digits tables print; one row with a wrong H is reported at that row.
+TEST_CASE("tabulated H and S columns are checked against the integrals of Cp", "[statmech]") {
+  const auto rows = [](double h_shift_kj) {
+    std::string text;
+    const double t0 = constants::kReferenceTemperature;
+    for (const double t : {298.15, 400.0, 500.0, 600.0}) {
+      const double cp = 30.0 + 0.01 * t;
+      const double h_kj = (30.0 * (t - t0) + 0.005 * (t * t - t0 * t0)) * 1e-3;
+      const double s = 200.0 + 30.0 * std::log(t / t0) + 0.01 * (t - t0);
+      char row[160];
+      std::snprintf(row, sizeof row, "        - [%g, %.3f, %.3f, %.3f]\n", t, cp,
+                    h_kj + (t == 500.0 ? h_shift_kj : 0.0), s);
+      text += row;
+    }
+    return text;
+  };
+  const std::string head =
+      "sevenfold-species: 2\nspecies:\n  X:\n    formula: N2\n    formation-enthalpy: 0\n"
+      "    shape: linear\n    tabulated-cp:\n      points:\n";  // rows from line 9
+  const Species good = ReadSpeciesText(head + rows(0.0), "h.yaml").at(0);
+  CHECK_THAT(SpeciesThermo(good).At(600.0).s_j_per_mol_k,
+             Catch::Matchers::WithinAbs(200.0 + 30.0 * std::log(600.0 / 298.15) + 0.01 * (600.0 - 298.15),
+                                        2e-3));
+  // 0.1 kJ/mol off H - H298 = 6.2 kJ/mol at 500 K: beyond 0.2 % + 0.002 kJ/mol.
+  const Species bad = ReadSpeciesText(head + rows(0.1), "h.yaml").at(0);
+  REQUIRE_THROWS_WITH(SpeciesThermo(bad),
+                      Catch::Contains("h.yaml:11:11: species 'X': tabulated-cp.points[2]: H-H298"));
 }
 
 }  // namespace

@@ -122,6 +122,12 @@ ExactCurves ExactCurvesFor(const Species& species, const ExtrapolationGuard& gua
 }
 
 std::string ModelDescription(const Species& species) {
+  if (species.tabulated) {
+    return fmt::format("tabulated Cp ({} rows, {}-{} K): shape-preserving cubic, integrated "
+                       "exactly; Wilhoit extrapolation outside",
+                       species.tabulated->t_k.size(), species.tabulated->t_k.front(),
+                       species.tabulated->t_k.back());
+  }
   std::string model = "ideal gas; translation; electronic levels";
   if (!species.diatomic_states.empty()) {
     model += "; diatomic rovibrational direct sum";

@@ -41,6 +41,13 @@ inline const std::vector<std::string>& kDiatomicKeys = KeysOf(KeySection::kRovib
 inline const std::vector<std::string>& kDiatomicStateKeys = KeysOf(KeySection::kRovibrationalState);
 inline const std::vector<std::string>& kNuclearSpinKeys = KeysOf(KeySection::kSpinStatistics);
 inline const std::vector<std::string>& kTorsionKeys = KeysOf(KeySection::kHinderedRotor);
+inline const std::vector<std::string>& kTabulatedKeys = KeysOf(KeySection::kTabulatedCp);
+// The species keys of molecular data, refused next to tabulated-cp (which replaces them).
+inline const std::vector<std::string> kMolecularKeys = {
+    "formation-enthalpy-0k", "symmetry-number", "rotational-constants", "moments-of-inertia",
+    "structure", "vibrations", "frequency-scale", "electronic-levels", "spin-multiplicity",
+    "optical-isomers", "centrifugal-distortion", "rovibrational-constants", "spin-statistics",
+    "hindered-rotors"};
 
 inline std::string JoinWords(const std::vector<std::string>& words) {
   std::string text;
@@ -292,6 +299,8 @@ class FileParser {
                                                  std::vector<NameRecord>* names);
   std::vector<Species> ParseWholeDocument(std::vector<NameRecord>* names);
   bool ReadFormula(const YAML::Node& value, Species* species);
+  // Symmetry number, rotation, vibrations, electronic levels and the rest of the molecular data.
+  void ReadMolecularData(SpeciesDraft* draft);
   void ReadRotation(SpeciesDraft* draft);
   std::optional<std::vector<GeometryAtom>> ReadGeometry(const YAML::Node& value);
   void ReadVibrations(SpeciesDraft* draft);
@@ -302,6 +311,8 @@ class FileParser {
                                                  bool list_form);
   void ReadNuclearSpin(const Entry& entry, SpeciesDraft* draft);
   void ReadTorsions(const Entry& entry, SpeciesDraft* draft);
+  // tabulated-cp: the rows, the entropy anchor and the Wilhoit limits (section_readers.cc).
+  void ReadTabulated(const Entry& entry, SpeciesDraft* draft);
 
   const std::string& text_;
   const std::string& file_name_;

@@ -948,4 +948,119 @@ void FileParser::CheckKramers(const YAML::Node& label_node,
        "spin-multiplicity (2 for a doublet radical such as CH3)");
 }
 
+void FileParser::ReadTabulated(const Entry& entry, SpeciesDraft* draft) {
+  const std::size_t before = problems_->size();
+  const auto entries = ReadEntries(entry.value, "tabulated-cp", kTabulatedKeys);
+  if (!entries) return;
+  TabulatedCp table;
+  const Entry* points = entries->Find("points");
+  if (!points) {
+    Fail(entry.value, "tabulated-cp.points", "missing", "a list of [T, Cp] rows");
+    return;
+  }
+  const std::string row_rule = "a row [T, Cp] or [T, Cp, H-H298, S] (K, J/(mol K), kJ/mol, "
+                               "J/(mol K)), every row as wide as the first";
+  if (!IsSequence(points->value, "tabulated-cp.points", "a list of rows, each " + row_rule)) return;
+  const std::size_t num_rows = points->value.size();
+  if (num_rows < kMinTabulatedPoints || num_rows > kMaxTabulatedPoints) {
+    Fail(points->value,
+         "tabulated-cp.points",
+         Plural(num_rows, "row"),
+         fmt::format("{} to {} rows (three at least: the interpolant's end slopes and the "
+                     "Wilhoit extrapolation are matched to three-point formulas)",
+                     kMinTabulatedPoints, kMaxTabulatedPoints));
+    return;
+  }
+  std::size_t width = 0;
+  for (std::size_t i = 0; i < num_rows; ++i) {
+    const YAML::Node row = points->value[i];
+    const std::string key = "tabulated-cp.points[" + std::to_string(i) + "]";
+    const bool shaped = row.IsSequence() && (row.size() == 2 || row.size() == 4) &&
+                        (width == 0 || row.size() == width);
+    if (!shaped) {
+      Fail(row, key, Describe(row), row_rule);
+      return;
+    }
+    width = row.size();
+    const auto t_k = ReadInRange(row[0], key + "[0]", kMinTemperatureK, kMaxTemperatureK,
+                                 "a temperature in K");
+    const auto cp = ReadInRange(row[1], key + "[1]", 0.0, kMaxTabulatedCpJPerMolK,
+                                "a heat capacity Cp in J/(mol K)");
+    if (!t_k || !cp) return;
+    if (!table.t_k.empty() && !(*t_k > table.t_k.back())) {
+      Fail(row[0],
+           key + "[0]",
+           fmt::format("{} K after {} K in the row before", *t_k, table.t_k.back()),
+           "temperatures strictly increasing from row to row");
+      return;
+    }
+    table.t_k.push_back(*t_k);
+    table.cp_j_per_mol_k.push_back(*cp);
+    table.row_locations.push_back(Where(row));
+    if (width == 4) {
+      const double max_h_kj = kMaxTabulatedEnthalpyJPerMol * 1.0e-3;
+      const auto h_kj = ReadInRange(row[2], key + "[2]", -max_h_kj, max_h_kj,
+                                    "H(T) - H(298.15 K) in kJ/mol");
+      const auto s = ReadInRange(row[3], key + "[3]", 0.0, kMaxTabulatedEntropyJPerMolK,
+                                 "an entropy in J/(mol K)");
+      if (!h_kj || !s) return;
+      table.h_minus_h298_j_per_mol.push_back(*h_kj * 1.0e3);
+      table.s_j_per_mol_k.push_back(*s);
+    }
+  }
+  const Entry* reference = entries->Find("reference-entropy");
+  if (width == 4) {
+    if (reference) {
+      Fail(reference->key_node,
+           "tabulated-cp.reference-entropy",
+           "given with rows that have an S column",
+           "the entropy from the rows only (the first row anchors it)");
+      return;
+    }
+    table.entropy_t_k = table.t_k.front();
+    table.entropy_j_per_mol_k = table.s_j_per_mol_k.front();
+  } else if (!reference) {
+    Fail(entry.value,
+         "tabulated-cp.reference-entropy",
+         "missing",
+         "[T, S]: the entropy at one temperature (K, J/(mol K)), as rows of [T, Cp] carry none");
+    return;
+  } else {
+    const YAML::Node value = reference->value;
+    const std::string key = "tabulated-cp.reference-entropy";
+    if (!value.IsSequence() || value.size() != 2) {
+      Fail(value, key, Describe(value), "[T, S] in K and J/(mol K)");
+      return;
+    }
+    const auto t_k = ReadInRange(value[0], key + "[0]", kMinTemperatureK, kMaxTemperatureK,
+                                 "a temperature in K");
+    const auto s = ReadInRange(value[1], key + "[1]", 0.0, kMaxTabulatedEntropyJPerMolK,
+                               "an entropy in J/(mol K)");
+    if (!t_k || !s) return;
+    table.entropy_t_k = *t_k;
+    table.entropy_j_per_mol_k = *s;
+  }
+  for (const auto& [name, target] :
+       {std::pair<const char*, std::optional<double>*>{"cp-zero", &table.cp_zero_j_per_mol_k},
+        {"cp-infinity", &table.cp_infinity_j_per_mol_k}}) {
+    if (const Entry* limit = entries->Find(name)) {
+      const std::string key = std::string("tabulated-cp.") + name;
+      if (const auto value = ReadInRange(limit->value, key, 0.0, kMaxTabulatedCpJPerMolK,
+                                         "a heat capacity in J/(mol K)")) {
+        *target = *value;
+      }
+    }
+  }
+  if (table.cp_zero_j_per_mol_k && table.cp_infinity_j_per_mol_k &&
+      !(*table.cp_zero_j_per_mol_k < *table.cp_infinity_j_per_mol_k)) {
+    const Entry* limit = entries->Find("cp-infinity");
+    Fail(limit->value,
+         "tabulated-cp.cp-infinity",
+         fmt::format("{} J/(mol K), not above cp-zero {} J/(mol K)",
+                     *table.cp_infinity_j_per_mol_k, *table.cp_zero_j_per_mol_k),
+         "cp-infinity above cp-zero (the Wilhoit form rises from one to the other)");
+  }
+  if (problems_->size() == before) draft->species.tabulated = std::move(table);
+}
+
 }  // namespace sevenfold::detail

@@ -102,6 +102,27 @@ std::string ToString(ElectronConvention convention);
 inline constexpr ElectronConvention kFormationEnthalpyElectronConvention =
     ElectronConvention::kThermal;
 
+// A species given as a table of Cp instead of molecular constants (docs/species-schema.md,
+// "Tabulated species"); statmech/tabulated_cp.h turns it into exact curves.
+struct TabulatedCp {
+  // Strictly increasing temperatures, K, and Cp at each, J/(mol K); at least
+  // schema::kMinTabulatedPoints rows.
+  std::vector<double> t_k;
+  std::vector<double> cp_j_per_mol_k;
+  // Optional columns (empty, or one value per row): H(T) - H(298.15 K), J/mol, and S, J/(mol K).
+  // Given, they are checked against the integrals of the interpolated Cp.
+  std::vector<double> h_minus_h298_j_per_mol;
+  std::vector<double> s_j_per_mol_k;
+  // The entropy anchor: S at entropy_t_k. From the key reference-entropy, or the first row's S.
+  double entropy_t_k = 298.15;
+  double entropy_j_per_mol_k = 0.0;
+  // Wilhoit limits Cp(0) and Cp(infinity), J/(mol K); empty: from the atom count and the shape.
+  std::optional<double> cp_zero_j_per_mol_k;
+  std::optional<double> cp_infinity_j_per_mol_k;
+  // Where each row was written, for the consistency errors of statmech.
+  std::vector<SourceLocation> row_locations;
+};
+
 struct Species {
   std::string name;
   // Element symbol and count, in the order written in the file.
@@ -133,6 +154,8 @@ struct Species {
   std::optional<NuclearSpin> nuclear_spin;
   std::vector<Torsion> torsions;
   std::vector<GeometryAtom> geometry;  // empty unless given
+  // Set for a species given by tabulated-cp: then the molecular data above are unused.
+  std::optional<TabulatedCp> tabulated;
 
   // Where the species' block starts, and a hex SHA-256 of its canonical content (defaults
   // merged), used as provenance to detect entries that were not regenerated after an edit.

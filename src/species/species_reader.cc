@@ -89,6 +89,83 @@ bool FileParser::CheckFormat(const YAML::Node& root) {
   return true;
 }
 
+// The molecular data of a species (everything tabulated-cp replaces).
+void FileParser::ReadMolecularData(SpeciesDraft* draft) {
+  SpeciesDraft& draft_ref = *draft;
+  Species& species = draft_ref.species;
+  const Entries& entries = *draft_ref.entries;
+  const YAML::Node& label_node = draft_ref.label;
+  const bool shape_ok = draft_ref.shape_ok;
+  if (const Entry* entry = entries.Find("symmetry-number")) {
+    const auto sigma = ReadAtLeast(entry->value, "symmetry-number", 1.0, "a symmetry number");
+    if (sigma) {
+      if (shape_ok && species.shape == Shape::kAtom && *sigma != 1.0) {
+        Fail(entry->value, "symmetry-number", Number(*sigma) + " for an atom", "1 (or omit it)");
+      } else if (shape_ok && species.shape == Shape::kLinear && *sigma != 1.0 && *sigma != 2.0) {
+        Fail(entry->value,
+             "symmetry-number",
+             Number(*sigma) + " for a linear species",
+             "1 (no centre of symmetry) or 2 (centrosymmetric)");
+      } else {
+        species.symmetry_number = *sigma;
+      }
+    }
+  } else if (shape_ok && species.shape != Shape::kAtom) {
+    Fail(label_node,
+         "symmetry-number",
+         "missing",
+         "the external symmetry number for a " + ToString(species.shape) + " species");
+  }
+
+  const Entry* diatomic_entry = entries.Find("rovibrational-constants");
+  // Electronic levels first: the map form of rovibrational-constants takes the ground degeneracy.
+  const Entry* levels_entry = entries.Find("electronic-levels");
+  if (levels_entry) ReadElectronicLevels(levels_entry->value, &species);
+  if (const Entry* entry = entries.Find("spin-multiplicity")) {
+    ReadSpinMultiplicity(*entry, entries, &species);
+  }
+  if (diatomic_entry) ReadDiatomic(*diatomic_entry, draft);
+  draft->has_rovibrational = diatomic_entry != nullptr;
+  const bool has_diatomic = draft->has_rovibrational;
+
+  ReadRotation(draft);
+  if (has_diatomic && species.rotational_constants_cm1.empty() &&
+      !species.diatomic_states.empty()) {
+    // Rigid-rotor stand-in: B_0 = B_e - alpha_e / 2 of the ground state.
+    const DiatomicConstants& ground = species.diatomic_states.front().constants;
+    species.rotational_constants_cm1 = {ground.be_cm1 - 0.5 * ground.alphae_cm1};
+  }
+  const std::size_t before_vibrations = problems_->size();
+  ReadVibrations(draft);
+  draft->vibrations_ok = problems_->size() == before_vibrations;
+
+  if (const Entry* entry = entries.Find("frequency-scale")) {
+    if (const auto scale = ReadInRange(entry->value,
+                                       "frequency-scale",
+                                       kMinFrequencyScale,
+                                       kMaxFrequencyScale,
+                                       "a scale factor")) {
+      species.frequency_scale = *scale;
+    }
+  }
+  if (const Entry* entry = entries.Find("optical-isomers")) {
+    if (const auto isomers = ReadAtLeast(entry->value, "optical-isomers", 1.0, "a count")) {
+      species.optical_isomers = *isomers;
+    }
+  }
+  if (const Entry* entry = entries.Find("centrifugal-distortion")) {
+    if (shape_ok && species.shape != Shape::kLinear) {
+      Fail(entry->key_node,
+           "centrifugal-distortion",
+           "given for " + ShapePhrase(species.shape),
+           "centrifugal-distortion only for a linear species");
+    } else if (const auto d = ReadAtLeast(
+                   entry->value, "centrifugal-distortion", 0.0, "a distortion constant in cm^-1")) {
+      species.centrifugal_distortion_cm1 = *d;
+    }
+  }
+}
+
 std::optional<Species> FileParser::ReadSpecies(const YAML::Node& label_node,
                                                const YAML::Node& node,
                                                int index,
@@ -193,73 +270,19 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& label_node,
     }
   }
 
-  if (const Entry* entry = entries.Find("symmetry-number")) {
-    const auto sigma = ReadAtLeast(entry->value, "symmetry-number", 1.0, "a symmetry number");
-    if (sigma) {
-      if (shape_ok && species.shape == Shape::kAtom && *sigma != 1.0) {
-        Fail(entry->value, "symmetry-number", Number(*sigma) + " for an atom", "1 (or omit it)");
-      } else if (shape_ok && species.shape == Shape::kLinear && *sigma != 1.0 && *sigma != 2.0) {
-        Fail(entry->value,
-             "symmetry-number",
-             Number(*sigma) + " for a linear species",
-             "1 (no centre of symmetry) or 2 (centrosymmetric)");
-      } else {
-        species.symmetry_number = *sigma;
+  const Entry* tabulated_entry = entries.Find("tabulated-cp");
+  if (tabulated_entry) {
+    for (const std::string& key : kMolecularKeys) {
+      if (const Entry* entry = entries.Find(key)) {
+        Fail(entry->key_node,
+             key,
+             "given together with tabulated-cp",
+             "either molecular data or tabulated-cp, not both");
       }
     }
-  } else if (shape_ok && species.shape != Shape::kAtom) {
-    Fail(label_node,
-         "symmetry-number",
-         "missing",
-         "the external symmetry number for a " + ToString(species.shape) + " species");
-  }
-
-  const Entry* diatomic_entry = entries.Find("rovibrational-constants");
-  // Electronic levels first: the map form of rovibrational-constants takes the ground degeneracy.
-  const Entry* levels_entry = entries.Find("electronic-levels");
-  if (levels_entry) ReadElectronicLevels(levels_entry->value, &species);
-  if (const Entry* entry = entries.Find("spin-multiplicity")) {
-    ReadSpinMultiplicity(*entry, entries, &species);
-  }
-  if (diatomic_entry) ReadDiatomic(*diatomic_entry, &draft);
-  draft.has_rovibrational = diatomic_entry != nullptr;
-  const bool has_diatomic = draft.has_rovibrational;
-
-  ReadRotation(&draft);
-  if (has_diatomic && species.rotational_constants_cm1.empty() &&
-      !species.diatomic_states.empty()) {
-    // Rigid-rotor stand-in: B_0 = B_e - alpha_e / 2 of the ground state.
-    const DiatomicConstants& ground = species.diatomic_states.front().constants;
-    species.rotational_constants_cm1 = {ground.be_cm1 - 0.5 * ground.alphae_cm1};
-  }
-  const std::size_t before_vibrations = problems_->size();
-  ReadVibrations(&draft);
-  draft.vibrations_ok = problems_->size() == before_vibrations;
-
-  if (const Entry* entry = entries.Find("frequency-scale")) {
-    if (const auto scale = ReadInRange(entry->value,
-                                       "frequency-scale",
-                                       kMinFrequencyScale,
-                                       kMaxFrequencyScale,
-                                       "a scale factor")) {
-      species.frequency_scale = *scale;
-    }
-  }
-  if (const Entry* entry = entries.Find("optical-isomers")) {
-    if (const auto isomers = ReadAtLeast(entry->value, "optical-isomers", 1.0, "a count")) {
-      species.optical_isomers = *isomers;
-    }
-  }
-  if (const Entry* entry = entries.Find("centrifugal-distortion")) {
-    if (shape_ok && species.shape != Shape::kLinear) {
-      Fail(entry->key_node,
-           "centrifugal-distortion",
-           "given for " + ShapePhrase(species.shape),
-           "centrifugal-distortion only for a linear species");
-    } else if (const auto d = ReadAtLeast(
-                   entry->value, "centrifugal-distortion", 0.0, "a distortion constant in cm^-1")) {
-      species.centrifugal_distortion_cm1 = *d;
-    }
+    ReadTabulated(*tabulated_entry, &draft);
+  } else {
+    ReadMolecularData(&draft);
   }
   if (const Entry* entry = entries.Find("fit-temperatures")) {
     ReadTemperatures(entry->value, "fit-temperatures", &species.temperatures);
@@ -274,14 +297,16 @@ std::optional<Species> FileParser::ReadSpecies(const YAML::Node& label_node,
   if (const Entry* entry = entries.Find("fit-thresholds")) {
     ReadThresholds(entry->value, "fit-thresholds", &species.thresholds);
   }
-  if (const Entry* entry = entries.Find("spin-statistics")) {
+  if (const Entry* entry = entries.Find("spin-statistics"); entry && !tabulated_entry) {
     ReadNuclearSpin(*entry, &draft);
   }
-  if (const Entry* entry = entries.Find("hindered-rotors")) {
+  if (const Entry* entry = entries.Find("hindered-rotors"); entry && !tabulated_entry) {
     ReadTorsions(*entry, &draft);
   }
 
-  if (problems_->size() == before && composition_ok) CheckKramers(label_node, entries, species);
+  if (problems_->size() == before && composition_ok && !tabulated_entry) {
+    CheckKramers(label_node, entries, species);
+  }
   if (problems_->size() != before) return std::nullopt;
   std::string canonical = "sevenfold species v3\n";
   AppendCanonical(label_node, &canonical);

@@ -94,6 +94,7 @@ std::vector<KeySpec> BuildTable() {
        "diatomic", "no", ""},
       {S::kSpecies, "spin-statistics", "map", "", weight_band, "homonuclear diatomic", "no", ""},
       {S::kSpecies, "hindered-rotors", "list of maps", "", "", "nonlinear", "no", ""},
+      {S::kSpecies, "tabulated-cp", "map", "", "", "all", "no (replaces the molecular data)", ""},
 
       {S::kFitTemperatures, "low", "number", "K", temperature_band, "", "no",
        fmt::format("{}", ranges.low_k)},
@@ -156,6 +157,22 @@ std::vector<KeySpec> BuildTable() {
        AtMost(kMaxTorsionBarrierJPerMol * 1.0e-3, "kJ/mol"), "", "this or barrier-height", ""},
   };
   for (const KeySpec& spec : rest) table.push_back(spec);
+  const std::string cp_band = fmt::format("Cp >= 0, at most {} J/(mol K)", kMaxTabulatedCpJPerMolK);
+  const KeySpec tabulated[] = {
+      {S::kTabulatedCp, "points", "list of [T, Cp] or [T, Cp, H-H298, S]",
+       "K, J/(mol K), kJ/mol, J/(mol K)",
+       fmt::format("T increasing, {} to {} rows; {}", kMinTabulatedPoints, kMaxTabulatedPoints,
+                   cp_band),
+       "", "yes", ""},
+      {S::kTabulatedCp, "reference-entropy", "[T, S]", "K, J/(mol K)",
+       fmt::format("S > 0, at most {} J/(mol K)", kMaxTabulatedEntropyJPerMolK), "",
+       "with rows of two columns", ""},
+      {S::kTabulatedCp, "cp-zero", "number", "J/(mol K)", ">= 0 (0 for a solid), below cp-infinity", "", "no",
+       "2.5 R atom, 3.5 R linear, 4 R nonlinear"},
+      {S::kTabulatedCp, "cp-infinity", "number", "J/(mol K)", "> cp-zero", "", "no",
+       "2.5 R atom, (3N - 1.5) R linear, (3N - 2) R nonlinear"},
+  };
+  for (const KeySpec& spec : tabulated) table.push_back(spec);
   return table;
 }
 
@@ -183,6 +200,8 @@ std::string ToString(KeySection section) {
       return "spin-statistics";
     case KeySection::kHinderedRotor:
       return "hindered-rotors[i]";
+    case KeySection::kTabulatedCp:
+      return "tabulated-cp";
   }
   return "";
 }
@@ -194,7 +213,7 @@ const std::vector<KeySpec>& KeyTable() {
 
 const std::vector<std::string>& KeysOf(KeySection section) {
   static const std::vector<std::vector<std::string>> by_section = [] {
-    std::vector<std::vector<std::string>> keys(static_cast<std::size_t>(KeySection::kHinderedRotor) + 1);
+    std::vector<std::vector<std::string>> keys(static_cast<std::size_t>(KeySection::kTabulatedCp) + 1);
     for (const KeySpec& spec : KeyTable()) {
       keys[static_cast<std::size_t>(spec.section)].push_back(spec.key);
     }

@@ -66,6 +66,27 @@ inline constexpr double kMaxTorsionBarrierJPerMol = 1.0e6;
 // |coordinate| in a geometry, angstrom: molecules are nanometres across.
 inline constexpr double kMaxCoordinateAngstrom = 1.0e3;
 
+// Tabulated species (tabulated-cp). Three rows at least: the interpolant's end slopes are
+// three-point formulas, and the Wilhoit extrapolation is matched to the value and slope at each
+// end. At most 10000 rows, far beyond any evaluated table (hostile-input bound).
+inline constexpr std::size_t kMinTabulatedPoints = 3;
+inline constexpr std::size_t kMaxTabulatedPoints = 10000;
+// Cp, J/(mol K): a species of 1000 atoms reaches about 3 N R = 2.5e4 J/(mol K) classically.
+inline constexpr double kMaxTabulatedCpJPerMolK = 1.0e5;
+// |S| and |H - H298| bands of the optional columns, J/(mol K) and J/mol.
+inline constexpr double kMaxTabulatedEntropyJPerMolK = 1.0e5;
+inline constexpr double kMaxTabulatedEnthalpyJPerMol = 1.0e9;
+// The H - H298 and S columns must equal the integrals of the interpolated Cp within this
+// fraction of the integral's size (|H - H298|, resp. the integral of Cp/T from the first row)
+// plus the last printed digit (kTabulatedEnthalpyRoundingJPerMol, kTabulatedEntropyRounding...).
+// Piecewise-cubic interpolation between rows 100 K apart, as evaluated tables print them, moves
+// the integrals by less than 0.1 % on smooth Cp (tests/statmech_test.cc shows it on CO2), so a
+// larger mismatch means the columns do not belong to the Cp column.
+inline constexpr double kTabulatedConsistencyRelative = 2.0e-3;
+// Tables print H - H298 to 0.001 kJ/mol and S to 0.001 J/(mol K); twice that absorbs rounding.
+inline constexpr double kTabulatedEnthalpyRoundingJPerMol = 2.0;
+inline constexpr double kTabulatedEntropyRoundingJPerMolK = 2.0e-3;
+
 // A torsion's replaces tolerance and the other rules above, as documented, are also the values
 // the engine relies on: statmech never re-derives them.
 
@@ -83,6 +104,7 @@ enum class KeySection {
   kRovibrationalState,  // rovibrational-constants, one item of the list form
   kSpinStatistics,      // spin-statistics
   kHinderedRotor,       // one item of hindered-rotors
+  kTabulatedCp,         // tabulated-cp
 };
 // The section's name as the documentation's key reference writes it: "top level", "defaults",
 // "species", "fit-temperatures", ...

@@ -18,6 +18,7 @@
 #include "statmech/level_sum.h"
 #include "statmech/nuclear_spin.h"
 #include "statmech/rotor.h"
+#include "statmech/tabulated_cp.h"
 #include "statmech/torsion.h"
 #include "statmech/translation.h"
 
@@ -42,6 +43,8 @@ struct SpeciesThermo::Model {
   std::optional<ParityLevelSum> parity_sum;
   std::vector<double> vibration_theta_k;
   std::vector<TorsionContribution> torsions;
+  // Set for a species given by tabulated-cp: then it alone gives the curves.
+  std::optional<TabulatedCurves> tabulated;
   double h298_minus_h0_j_per_mol = 0.0;
 
   // Sum of the internal and translational moments at t_k.
@@ -75,6 +78,14 @@ SpeciesThermo::SpeciesThermo(const Species& species, double highest_temperature_
   model.pressure_pa = species.standard_pressure_pa;
   model.formation_enthalpy_j_per_mol = species.formation_enthalpy_j_per_mol;
   model.ln_optical_isomers = std::log(species.optical_isomers);
+  if (species.tabulated) {
+    if (species.formation_enthalpy_0k_j_per_mol) {
+      fail("a tabulated species gives its formation enthalpy at 298.15 K (formation-enthalpy)");
+    }
+    model.tabulated.emplace(species);
+    model.h298_minus_h0_j_per_mol = model.tabulated->H298MinusH0JPerMol();
+    return;
+  }
 
   // Electronic levels are measured from the lowest one, so that H(0) is the ground level.
   double lowest_cm1 = species.electronic_levels.empty() ? 0.0
@@ -224,6 +235,7 @@ ThermoPoint SpeciesThermo::At(double t_k) const {
                             "[{}, {}] K",
                             model.name, t_k, kMinTemperatureK, kMaxTemperatureK));
   }
+  if (model.tabulated) return model.tabulated->At(t_k);
   const Moments total = model.TotalMoments(t_k);
   ThermoPoint point;
   point.t_k = t_k;
