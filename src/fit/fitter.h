@@ -1,7 +1,8 @@
 // SPDX-License-Identifier: MIT
-// Constrained weighted least-squares fit of a two-range NASA polynomial to exact curves,
+// The constrained fit of a two-range NASA polynomial to exact curves (minimax or least squares),
 // the choice of the mid temperature, and the fit's quality figures. See docs/fitting.md.
-// Eigen and Ceres stay inside fitter.cc; this header needs neither.
+// The solvers live in minimax*.cc and least_squares.cc (Ceres there only); this header needs
+// neither Eigen nor Ceres.
 #pragma once
 
 #include <optional>
