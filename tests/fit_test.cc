@@ -252,14 +252,14 @@ TEST_CASE("a known continuous pair of polynomials is recovered", "[fit]") {
 TEST_CASE("fit of an Einstein gas is continuous at the mid temperature and exact at 298.15 K",
           "[fit]") {
   const EinsteinGas gas = CarbonDioxide();
-  const ExactCurves curves = gas.Sample(FitGrid(200.0, 6000.0));
+  ExactCurves curves = gas.Sample(FitGrid(200.0, 6000.0));
+  curves.classical_limit_cp_over_r = ClassicalLimitCpOverR(3);
   for (bool second_derivative : {false, true}) {
     for (std::optional<double> t_mid_k : {std::optional<double>(1000.0), std::optional<double>()}) {
       CAPTURE(second_derivative, t_mid_k.has_value());
       FitOptions options;
       options.t_mid_k = t_mid_k;
       options.continuous_second_derivative = second_derivative;
-      options.num_atoms = 3;
       const FitResult fit = FitTwoRange(curves, options, QualityThresholds{});
       RequireContinuous(fit.polynomial, second_derivative);
 
@@ -307,10 +307,10 @@ TEST_CASE("reference state is pinned also when 298.15 K is not a grid point", "[
 TEST_CASE("automatic mid temperature is refined by Ceres and does at least as well as a scan",
           "[fit]") {
   const EinsteinGas gas = CarbonDioxide();
-  const ExactCurves curves = gas.Sample(FitGrid(200.0, 6000.0));
+  ExactCurves curves = gas.Sample(FitGrid(200.0, 6000.0));
+  curves.classical_limit_cp_over_r = ClassicalLimitCpOverR(3);
   FitOptions automatic;
   automatic.objective = FitObjective::kLeastSquares;  // the Ceres refinement is least squares
-  automatic.num_atoms = 3;
   const FitResult fit = FitTwoRange(curves, automatic, QualityThresholds{});
   INFO("t_mid = " << fit.polynomial.t_mid_k << ", note: " << fit.mid_choice.note);
   CHECK(fit.mid_choice.method == MidTemperatureMethod::kScanAndRefinement);
@@ -345,8 +345,8 @@ TEST_CASE("automatic mid temperature of a minimax fit is within 2 % of the best 
     curves.guard_t_k.push_back(t_k);
     curves.guard_cp_over_r.push_back(gas.CpOverR(t_k));
   }
+  curves.classical_limit_cp_over_r = ClassicalLimitCpOverR(3);
   FitOptions automatic;
-  automatic.num_atoms = 3;
   const FitResult fit = FitTwoRange(curves, automatic, QualityThresholds{});
   double best_scan = HUGE_VAL, best_t_k = 0.0;
   for (double t_mid_k = 300.0; t_mid_k <= 5600.0; t_mid_k += 10.0) {
@@ -501,6 +501,12 @@ TEST_CASE("impossible fit requests are rejected with the reason", "[fit]") {
   std::swap(reversed.t_k[3], reversed.t_k[4]);
   CHECK_THROWS_WITH(FitTwoRange(reversed, options, QualityThresholds{}),
                     Catch::Contains("expected increasing"));
+  // No ideal gas has Cp/R below 5/2, so neither has its classical limit.
+  ExactCurves bad_limit = curves;
+  bad_limit.classical_limit_cp_over_r = 1.0;
+  CHECK_THROWS_WITH(FitTwoRange(bad_limit, options, QualityThresholds{}),
+                    "exact curves: classical limit Cp/R = 1; expected 0 (unknown) or a finite "
+                    "value of at least 2.5");
 }
 
 TEST_CASE("every demo species fits continuously at T_mid and exactly at 298.15 K", "[fit]") {
@@ -571,7 +577,6 @@ TEST_CASE("the mid-temperature search objective agrees with the full solve", "[f
     const ExactCurves curves = ExactCurvesFor(one);
     FitOptions automatic;
     automatic.objective = FitObjective::kLeastSquares;  // the least-squares search's two paths
-    automatic.num_atoms = one.NumAtoms();
     const FitResult fit = FitTwoRange(curves, automatic, one.thresholds);
     FitOptions fixed = automatic;
     fixed.t_mid_k = fit.mid_choice.scan_best_t_mid_k;
@@ -735,7 +740,6 @@ void RequireCertified(const std::vector<Species>& species, std::optional<double>
                       int* num_certified) {
   for (const Species& one : species) {
     FitOptions options;
-    options.num_atoms = one.NumAtoms();
     options.t_mid_k = t_mid_k ? t_mid_k : one.temperatures.mid_k;
     const ExactCurves curves = ExactCurvesFor(one, options.extrapolation_guard);
     const FitResult fit = FitTwoRange(curves, options, one.thresholds);
@@ -806,7 +810,6 @@ TEST_CASE("a polyatomic over 200-6000 K is reported at the form's limit with a p
                                  [](const Species& one) { return one.name == "C2H4"; });
   REQUIRE(c2h4 != species.end());
   FitOptions options;
-  options.num_atoms = c2h4->NumAtoms();
   options.t_mid_k = 1000.0;
   const ExactCurves curves = ExactCurvesFor(*c2h4, options.extrapolation_guard);
   const FitResult fit = FitTwoRange(curves, options, c2h4->thresholds);
@@ -829,7 +832,6 @@ TEST_CASE("an atom without electronic excitation gets exact coefficients", "[fit
                                [](const Species& one) { return one.name == "He"; });
   REQUIRE(he != species.end());
   FitOptions options;
-  options.num_atoms = 1;
   const FitResult fit = FitTwoRange(ExactCurvesFor(*he), options, he->thresholds);
   for (const NasaCoefficients* a : {&fit.polynomial.low, &fit.polynomial.high}) {
     CHECK((*a)[0] == 2.5);

@@ -66,6 +66,12 @@ void ValidateCurves(const ExactCurves& exact) {
                               exact.t_k[i], exact.t_k[i - 1]));
     }
   }
+  const double limit = exact.classical_limit_cp_over_r;
+  if (!(limit == 0.0 || (std::isfinite(limit) && limit >= kIdealGasMinCpOverR))) {
+    throw Error(fmt::format("exact curves: classical limit Cp/R = {}; expected 0 (unknown) or a "
+                            "finite value of at least {}",
+                            limit, kIdealGasMinCpOverR));
+  }
 }
 
 void ValidateThresholds(const QualityThresholds& thresholds) {
@@ -122,7 +128,6 @@ std::string FitOptions::Validate() const {
   if (t_mid_k && !(std::isfinite(*t_mid_k) && *t_mid_k > 0.0)) {
     return fmt::format("t_mid_k = {}; expected a positive finite temperature", *t_mid_k);
   }
-  if (num_atoms < 0) return fmt::format("num_atoms = {}; expected 0 (unknown) or more", num_atoms);
   return "";
 }
 
@@ -332,8 +337,8 @@ FitResult FitTwoRange(const ExactCurves& exact, const FitOptions& options,
         ComputeFormLimit(exact, options, thresholds, solution.polynomial.t_mid_k);
   }
   const double upper_cp_over_r =
-      (options.num_atoms > 0
-           ? ClassicalLimitCpOverR(options.num_atoms)
+      (exact.classical_limit_cp_over_r > 0.0
+           ? exact.classical_limit_cp_over_r
            : *std::max_element(exact.cp_over_r.begin(), exact.cp_over_r.end())) +
       kExtrapolationUpperMargin;
   result.quality.extrapolation = CheckExtrapolation(solution.polynomial, upper_cp_over_r);
