@@ -60,7 +60,6 @@ void BM_FitFixedMid(benchmark::State& state) {
   const ExactCurves curves = ExactCurvesFor(TwentyAtomSpecies());
   FitOptions options;
   options.t_mid_k = 1000.0;
-  options.num_atoms = 20;
   for (auto _ : state) benchmark::DoNotOptimize(FitTwoRange(curves, options, QualityThresholds{}));
 }
 BENCHMARK(BM_FitFixedMid)->Unit(benchmark::kMicrosecond);
@@ -69,7 +68,6 @@ BENCHMARK(BM_FitFixedMid)->Unit(benchmark::kMicrosecond);
 void BM_FitAutoMid(benchmark::State& state) {
   const ExactCurves curves = ExactCurvesFor(TwentyAtomSpecies());
   FitOptions options;
-  options.num_atoms = 20;
   for (auto _ : state) benchmark::DoNotOptimize(FitTwoRange(curves, options, QualityThresholds{}));
 }
 BENCHMARK(BM_FitAutoMid)->Unit(benchmark::kMicrosecond);
@@ -78,7 +76,6 @@ BENCHMARK(BM_FitAutoMid)->Unit(benchmark::kMicrosecond);
 void BM_TablesAndAutoFit(benchmark::State& state) {
   const Species& species = TwentyAtomSpecies();
   FitOptions options;
-  options.num_atoms = 20;
   for (auto _ : state) {
     const ExactCurves curves = ExactCurvesFor(species);
     benchmark::DoNotOptimize(FitTwoRange(curves, options, QualityThresholds{}));

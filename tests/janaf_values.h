@@ -13,6 +13,12 @@ struct JanafValue {
   double s_j_per_mol_k;
 };
 
+// A Cp value alone, where only Cp is used.
+struct JanafCp {
+  double t_k;
+  double cp_j_per_mol_k;
+};
+
 namespace janaf {
 inline constexpr JanafValue kN2At298{298.15, 29.124, 191.609};
 inline constexpr JanafValue kN2At1000{1000.0, 32.697, 228.170};
@@ -28,6 +34,15 @@ inline constexpr JanafValue kCH4At298{298.15, 35.695, 186.251};
 inline constexpr JanafValue kCH4At1000{1000.0, 71.795, 247.549};
 inline constexpr JanafValue kArAt298{298.15, 20.786, 154.845};
 inline constexpr JanafValue kArAt1000{1000.0, 20.786, 179.999};
+
+// Cp at 3000 K from the same tables, typed from memory; cross-checked against memory of the
+// NIST Chemistry WebBook's Shomate fits to these tables (Chase 1998), which agree within 0.02 %
+// (O2: 39.870 from the fit; its table value is quoted to two decimals, the third not recalled).
+inline constexpr JanafCp kN2CpAt3000{3000.0, 37.028};
+inline constexpr JanafCp kO2CpAt3000{3000.0, 39.87};
+inline constexpr JanafCp kH2OCpAt3000{3000.0, 55.748};
+inline constexpr JanafCp kCO2CpAt3000{3000.0, 62.229};
+inline constexpr JanafCp kCH4CpAt3000{3000.0, 101.389};
 }  // namespace janaf
 
 }  // namespace sevenfold::testing

@@ -225,7 +225,6 @@ TEST_CASE("fits of generated species are continuous at T_mid to 1e-12", "[proper
     sevenfold::FitOptions options;
     // A fixed mid temperature for most (fast); the automatic choice for one.
     if (i + 1 < all.size()) options.t_mid_k = 700.0 + 150.0 * static_cast<double>(i);
-    options.num_atoms = species.NumAtoms();
     const sevenfold::FitResult fit =
         sevenfold::FitTwoRange(sevenfold::ExactCurvesFor(species), options, species.thresholds);
     const sevenfold::TwoRangePolynomial& p = fit.polynomial;

@@ -1,7 +1,8 @@
 // SPDX-License-Identifier: MIT
-// Constrained weighted least-squares fit of a two-range NASA polynomial to exact curves,
+// The constrained fit of a two-range NASA polynomial to exact curves (minimax or least squares),
 // the choice of the mid temperature, and the fit's quality figures. See docs/fitting.md.
-// Eigen and Ceres stay inside fitter.cc; this header needs neither.
+// The solvers live in minimax*.cc and least_squares.cc (Ceres there only); this header needs
+// neither Eigen nor Ceres.
 #pragma once
 
 #include <optional>
@@ -29,10 +30,6 @@ struct FitOptions {
   bool continuous_second_derivative = false;
   // Pin H and S to the exact values at 298.15 K when 298.15 K lies in [t_low_k, t_high_k].
   bool pin_reference_state = true;
-  // Number of atoms of the species, for the upper bound of the extrapolation band (classical
-  // limit of all modes + kExtrapolationUpperMargin). 0 means unknown: the bound is then the
-  // largest exact Cp/R on the grid + kExtrapolationUpperMargin.
-  int num_atoms = 0;
   // Returns an empty string when valid, otherwise a message naming the field and the rule.
   std::string Validate() const;
 };

@@ -25,6 +25,10 @@ struct ExactCurves {
   // or the caller has no model there; quality figures never use these points.
   std::vector<double> guard_t_k;
   std::vector<double> guard_cp_over_r;
+  // The classical high-temperature limit of the model's Cp/R (ClassicalLimitCpOverR for its
+  // atoms), the top of the sane band outside the range (with kExtrapolationUpperMargin).
+  // 0 means unknown: the top is then the largest Cp/R on the grid + kExtrapolationUpperMargin.
+  double classical_limit_cp_over_r = 0.0;
 };
 
 // Errors of one range against the exact curves over the grid points in that range

@@ -88,7 +88,6 @@ FitOptions FitOptionsFor(const Species& species, const RegenerateOptions& option
   fit_options.error_scales =
       pick(options.error_scales_override, request.error_scales,
            settings ? &settings->error_scales : nullptr, fit_options.error_scales);
-  fit_options.num_atoms = species.NumAtoms();
   return fit_options;
 }
 
@@ -106,6 +105,7 @@ ExactCurves ExactCurvesFor(const Species& species, const ExtrapolationGuard& gua
     *formation_enthalpy_j_per_mol = thermo.FormationEnthalpy298JPerMol();
   }
   ExactCurves curves;
+  curves.classical_limit_cp_over_r = ClassicalLimitCpOverR(species.NumAtoms());
   for (const double t : guard_t_k) {
     if (t < kMinTemperatureK || t > kMaxTemperatureK) continue;
     curves.guard_t_k.push_back(t);

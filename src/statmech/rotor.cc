@@ -172,17 +172,15 @@ RotorContribution RotorContribution::Nonlinear(const std::array<double, 3>& abc_
 }
 
 RotorContribution RotorContribution::FromLevels(std::vector<Level> levels,
-                                                double classical_exponent,
-                                                double ln_classical_prefactor, double c1_k,
-                                                double switch_t_k, double symmetry_number) {
+                                                const LadderTail& tail) {
   RotorContribution rotor;
   rotor.levels_ = std::move(levels);
-  rotor.ln_symmetry_ = std::log(symmetry_number);
-  rotor.classical_exponent_ = classical_exponent;
-  rotor.ln_classical_prefactor_ = ln_classical_prefactor;
-  rotor.tail_[1] = c1_k;
-  rotor.switch_t_k_ = switch_t_k;
-  if (std::isfinite(switch_t_k)) rotor.MatchTail();
+  rotor.ln_symmetry_ = std::log(tail.symmetry_number);
+  rotor.classical_exponent_ = tail.classical_exponent;
+  rotor.ln_classical_prefactor_ = tail.ln_classical_prefactor;
+  rotor.tail_[1] = tail.c1_k;
+  rotor.switch_t_k_ = tail.switch_t_k;
+  if (std::isfinite(tail.switch_t_k)) rotor.MatchTail();
   return rotor;
 }
 

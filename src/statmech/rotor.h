@@ -4,6 +4,7 @@
 #pragma once
 
 #include <array>
+#include <limits>
 #include <vector>
 
 #include "statmech/level_sum.h"
@@ -26,6 +27,19 @@ struct RotorOptions {
   // Cap on J for asymmetric and symmetric tops: keeps very prolate or oblate tops affordable
   // by lowering T_switch (then the series is used from a lower temperature).
   int max_j = 400;
+};
+
+// The high-temperature side of a general level ladder (RotorContribution::FromLevels): five
+// numbers that are easy to swap in a call, hence named.
+struct LadderTail {
+  // Classical limit q_cl = exp(ln_classical_prefactor) T^classical_exponent.
+  double classical_exponent = 0.0;
+  double ln_classical_prefactor = 0.0;
+  // Exact first correction c1_k / T of ln q, K.
+  double c1_k = 0.0;
+  // Hand-over temperature, K; infinity keeps the explicit sum everywhere.
+  double switch_t_k = std::numeric_limits<double>::infinity();
+  double symmetry_number = 1.0;
 };
 
 // The rotational contribution of one rigid rotor (ln q includes -ln sigma).
@@ -53,12 +67,9 @@ class RotorContribution {
                                      const RotorOptions& options = {});
 
   // A general level ladder with the same hand-over: levels (K, from the lowest, complete up to
-  // at least level_cut_factor * switch_t_k), classical limit q_cl = exp(ln_classical_prefactor)
-  // T^classical_exponent, exact first correction c1_k / T, and symmetry number. switch_t_k =
-  // infinity keeps the explicit sum everywhere. Used by the hindered internal rotor (torsion.h).
-  static RotorContribution FromLevels(std::vector<Level> levels, double classical_exponent,
-                                      double ln_classical_prefactor, double c1_k,
-                                      double switch_t_k, double symmetry_number);
+  // at least level_cut_factor * tail.switch_t_k) and the classical limit, first correction,
+  // hand-over and symmetry number of `tail`. Used by the hindered internal rotor (torsion.h).
+  static RotorContribution FromLevels(std::vector<Level> levels, const LadderTail& tail);
 
   Moments At(double t_k) const;
 

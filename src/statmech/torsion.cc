@@ -223,9 +223,13 @@ TorsionContribution::TorsionContribution(double theta_k, int symmetry,
   // High-temperature limit, energies from the lowest level E0: q -> sqrt(pi T / theta) / n times
   // exp((E0 - <V>) / T); the quantum corrections start at 1/T^3 (Wigner-Kirkwood; the free
   // rotor's own corrections are exponentially small), so c1 = E0 - <V> is exact.
-  ladder_ = RotorContribution::FromLevels(std::move(levels), 0.5,
-                                          0.5 * std::log(constants::kPi / theta_k),
-                                          lowest - terms.mean_k, switch_t, symmetry);
+  LadderTail tail;
+  tail.classical_exponent = 0.5;
+  tail.ln_classical_prefactor = 0.5 * std::log(constants::kPi / theta_k);
+  tail.c1_k = lowest - terms.mean_k;
+  tail.switch_t_k = switch_t;
+  tail.symmetry_number = symmetry;
+  ladder_ = RotorContribution::FromLevels(std::move(levels), tail);
 }
 
 }  // namespace sevenfold
