@@ -7,6 +7,7 @@
 
 #include <optional>
 #include <string>
+#include <cstddef>
 #include <vector>
 
 #include "fit/grid.h"
@@ -58,10 +59,16 @@ struct MidTemperatureChoice {
 // the optimum^2 >= min over the equality-constrained coefficients of sum w e^2 + sum mu (q^2 - 1),
 // which is lower_bound^2. The achieved worst error over lower_bound bounds the distance from the
 // optimum. Empty for least squares.
+struct CertificateWeight {
+  std::size_t error = 0;  // index of the normalised error: 3 per grid point (Cp, H, S)
+  double weight = 0.0;
+};
+
 struct MinimaxCertificate {
   double lower_bound = 0.0;
-  // One per normalised error, grid point by grid point: Cp, H, S (3 per point).
-  std::vector<double> weights;
+  // The positive weights only (the exchange's reference: m + 1 of some 600 errors), so that a
+  // fit kept for output costs a few dozen numbers, not one per error; an error not listed has 0.
+  std::vector<CertificateWeight> weights;
   // One per guard point (ExactCurves::guard_t_k), q = (Cp_fit - Cp_exact) / (band Cp_exact).
   std::vector<double> multipliers;
   bool guard_met = true;  // the fit keeps |q| <= 1 at every guard point

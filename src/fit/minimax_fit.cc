@@ -90,7 +90,9 @@ class MinimaxProblemBuilder {
     fit.max_error = solution.max_error;
     MinimaxCertificate& certificate = fit.certificate;
     certificate.lower_bound = solution.lower_bound;
-    certificate.weights = solution.weights;
+    for (std::size_t i = 0; i < solution.weights.size(); ++i) {
+      if (solution.weights[i] > 0.0) certificate.weights.push_back({i, solution.weights[i]});
+    }
     certificate.multipliers.assign(exact_.guard_t_k.size(), 0.0);
     for (std::size_t j = 0; j < guard_index_.size() && j < solution.multipliers.size(); ++j) {
       certificate.multipliers[guard_index_[j]] = solution.multipliers[j];
