@@ -686,3 +686,31 @@ TEST_CASE("a species fitted from its own tabulated curves gets the same polynomi
 
 }  // namespace
 }  // namespace sevenfold
+
+namespace sevenfold {
+namespace {
+
+TEST_CASE("an ion's entry states the electron convention of its formation enthalpy",
+          "[mechanism]") {
+  // OH- with the constants of OH (a stand-in: only the charge matters here).
+  const std::string text =
+      "sevenfold-species: 2\n"
+      "defaults:\n  fit-temperatures: {low: 200, mid: 1000, high: 3000}\n"
+      "species:\n"
+      "  OH-:\n    formula: OH-\n    formation-enthalpy: -143.2 kJ/mol\n    shape: linear\n"
+      "    symmetry-number: 1\n    rotational-constants: [18.9]\n    vibrations: [3700]\n"
+      "  OH:\n    formula: OH\n    formation-enthalpy: 37.3 kJ/mol\n    shape: linear\n"
+      "    symmetry-number: 1\n    rotational-constants: [18.9]\n    vibrations: [3700]\n"
+      "    spin-multiplicity: 2\n";
+  const std::vector<Species> species = ReadSpeciesText(text, "ions.yaml");
+  REQUIRE(species.size() == 2);
+  const RegenerateOptions options = Jobs(1);
+  const std::vector<SpeciesFit> fits = FitAllSpecies(species, options);
+  CHECK_THAT(MakeEntry(fits[0], options).provenance.model_options,
+             Catch::Matchers::EndsWith("ion: formation enthalpy in the thermal electron convention"));
+  CHECK_THAT(MakeEntry(fits[1], options).provenance.model_options,
+             !Catch::Matchers::Contains("electron convention"));
+}
+
+}  // namespace
+}  // namespace sevenfold

@@ -137,6 +137,11 @@ std::string ModelDescription(const Species& species) {
   }
   if (species.nuclear_spin) model += "; nuclear-spin statistics " + ToString(species.nuclear_spin->mixture);
   if (!species.torsions.empty()) model += fmt::format("; {} hindered rotor(s)", species.torsions.size());
+  // An ion's formation enthalpy depends on how the electron is counted (docs/species-schema.md).
+  if (species.charge != 0) {
+    model += "; ion: formation enthalpy in the " + ToString(species.electron_convention) +
+             " electron convention";
+  }
   return model;
 }
 
