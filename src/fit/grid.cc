@@ -64,4 +64,22 @@ std::vector<double> GuardGrid(double t_low_k, double t_high_k, const Extrapolati
   return grid;
 }
 
+std::size_t SplitIndex(const std::vector<double>& t_k, double t_mid_k) {
+  return static_cast<std::size_t>(std::lower_bound(t_k.begin(), t_k.end(), t_mid_k) - t_k.begin());
+}
+
+bool LeavesPointsOnEachSide(const std::vector<double>& t_k, double t_mid_k, int min_points) {
+  const std::size_t split = SplitIndex(t_k, t_mid_k), need = static_cast<std::size_t>(min_points);
+  return split >= need && t_k.size() - split >= need;
+}
+
+void RequirePointsOnEachSide(const std::vector<double>& t_k, double t_mid_k, int min_points) {
+  if (LeavesPointsOnEachSide(t_k, t_mid_k, min_points)) return;
+  const std::size_t split = SplitIndex(t_k, t_mid_k);
+  throw Error(fmt::format(
+      "mid temperature {:g} K leaves {} grid points below and {} at or above it; expected at "
+      "least {} on each side",
+      t_mid_k, split, t_k.size() - split, min_points));
+}
+
 }  // namespace sevenfold

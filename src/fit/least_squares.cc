@@ -20,6 +20,7 @@
 
 #include "core/error.h"
 #include "fit/design_rows.h"
+#include "fit/grid.h"
 
 namespace sevenfold::detail {
 namespace {
@@ -173,16 +174,8 @@ class LeastSquaresFitter {
   // Throws Error when t_mid_k leaves fewer than kMinPointsPerRange grid points on a side.
   Solution Solve(double t_mid_k) const {
     const std::vector<double>& t = exact_.t_k;
-    const std::size_t n = t.size();
-    const std::size_t split =
-        static_cast<std::size_t>(std::lower_bound(t.begin(), t.end(), t_mid_k) - t.begin());
-    if (split < static_cast<std::size_t>(kMinPointsPerRange) ||
-        n - split < static_cast<std::size_t>(kMinPointsPerRange)) {
-      throw Error(fmt::format(
-          "mid temperature {:g} K leaves {} grid points below and {} at or above it; expected at "
-          "least {} on each side",
-          t_mid_k, split, n - split, kMinPointsPerRange));
-    }
+    RequirePointsOnEachSide(t, t_mid_k, kMinPointsPerRange);
+    const std::size_t split = SplitIndex(t, t_mid_k);
 
     // |A x - b|^2 = |R x - Q^T b|^2 + (a constant) with A = Q R the block-diagonal QR of the
     // weighted rows: the problem is solved on the 14 x 14 factor, and the residuals are taken
@@ -275,13 +268,10 @@ class LeastSquaresFitter {
   double SearchObjective(double t_mid_k) const {
     SEVENFOLD_ASSERT(!below_.empty());
     const std::vector<double>& t = exact_.t_k;
-    const std::size_t n = t.size();
-    const std::size_t split =
-        static_cast<std::size_t>(std::lower_bound(t.begin(), t.end(), t_mid_k) - t.begin());
-    if (split < static_cast<std::size_t>(kMinPointsPerRange) ||
-        n - split < static_cast<std::size_t>(kMinPointsPerRange)) {
+    if (!LeavesPointsOnEachSide(t, t_mid_k, kMinPointsPerRange)) {
       return std::numeric_limits<double>::quiet_NaN();
     }
+    const std::size_t split = SplitIndex(t, t_mid_k);
     Matrix14 factor;
     Vector14 target;
     SplitFactor(split, factor, target);

@@ -13,6 +13,7 @@
 #include <fmt/format.h>
 
 #include "core/error.h"
+#include "fit/grid.h"
 
 namespace sevenfold::detail {
 namespace {
@@ -25,7 +26,7 @@ constexpr double kFinalGap = 0.0;
 constexpr double kSearchGap = 0.01;
 // Candidates of the coarse scan, spaced geometrically over the admissible mid temperatures; then
 // a pattern search on the multiples of kRefineStepK between the best candidate's neighbours.
-constexpr int kNumScanPoints = 21;
+constexpr int kNumCoarseCandidates = 21;
 constexpr double kRefineStepK = 10.0;
 
 class MinimaxProblemBuilder {
@@ -57,14 +58,9 @@ class MinimaxProblemBuilder {
     prepared_ = PrepareMinimaxRows(rows_, guard_rows_, guard_high_);
   }
 
-  std::size_t Split(double t_mid_k) const {
-    const std::vector<double>& t = exact_.t_k;
-    return static_cast<std::size_t>(std::lower_bound(t.begin(), t.end(), t_mid_k) - t.begin());
-  }
+  std::size_t Split(double t_mid_k) const { return SplitIndex(exact_.t_k, t_mid_k); }
   bool Admissible(double t_mid_k) const {
-    const std::size_t split = Split(t_mid_k), n = exact_.t_k.size();
-    return split >= static_cast<std::size_t>(kMinPointsPerRange) &&
-           n - split >= static_cast<std::size_t>(kMinPointsPerRange);
+    return LeavesPointsOnEachSide(exact_.t_k, t_mid_k, kMinPointsPerRange);
   }
 
   MinimaxSolution Solve(double t_mid_k, double gap, const MinimaxSolution* warm_start) const {
@@ -126,13 +122,7 @@ MinimaxFit FitMinimax(const ExactCurves& exact, const FitOptions& options,
   const MinimaxProblemBuilder builder(exact, options, scales);
   const std::vector<double>& t = exact.t_k;
   if (options.t_mid_k) {
-    if (!builder.Admissible(*options.t_mid_k)) {
-      const std::size_t split = builder.Split(*options.t_mid_k);
-      throw Error(fmt::format(
-          "mid temperature {:g} K leaves {} grid points below and {} at or above it; expected at "
-          "least {} on each side",
-          *options.t_mid_k, split, t.size() - split, kMinPointsPerRange));
-    }
+    RequirePointsOnEachSide(t, *options.t_mid_k, kMinPointsPerRange);
     MinimaxFit fit = builder.Finish(*options.t_mid_k, builder.Solve(*options.t_mid_k, kFinalGap, nullptr));
     fit.mid_choice.method = MidTemperatureMethod::kFixed;
     return fit;
@@ -146,9 +136,9 @@ MinimaxFit FitMinimax(const ExactCurves& exact, const FitOptions& options,
   // Coarse scan: whole-kelvin candidates spaced geometrically, each solve warm-started from the
   // weights of the previous candidate (the grid is the same; only the split moves).
   std::vector<double> candidates;
-  for (int i = 0; i < kNumScanPoints; ++i) {
+  for (int i = 0; i < kNumCoarseCandidates; ++i) {
     const double t_k =
-        lowest_k * std::pow(highest_k / lowest_k, static_cast<double>(i) / (kNumScanPoints - 1));
+        lowest_k * std::pow(highest_k / lowest_k, static_cast<double>(i) / (kNumCoarseCandidates - 1));
     const double rounded = std::clamp(std::round(t_k), lowest_k, highest_k);
     if (candidates.empty() || rounded > candidates.back()) candidates.push_back(rounded);
   }
