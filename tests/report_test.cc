@@ -774,7 +774,9 @@ TEST_CASE("hostile names stay data in every output: JSON, XML, HTML, Markdown, C
   WriteWhole((dir / "junit.xml").string(), FormatJUnitReport(check, "suite " + kHostileNames[0]));
 
   std::vector<TableRow> rows;
-  for (const std::string& name : kHostileNames) rows.push_back({name, 1.0e5, ThermoPoint{}});
+  for (const std::string& name : kHostileNames) {
+    rows.push_back({name, 1.0e5, ThermoPoint{}, std::nullopt, std::nullopt});
+  }
   for (TableRow& row : rows) row.point.t_k = 300.0;
   const std::string table_json = FormatTable(rows, TableFormat::kJson);
   WriteWhole((dir / "table.json").string(), table_json);

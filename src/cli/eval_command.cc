@@ -42,7 +42,12 @@ int RunEvalCommand(const EvalOptions& options) {
     int num_outside = 0;
     double lowest_k = 0.0, highest_k = 0.0;
     const std::vector<double> chosen = temperatures.For(p.t_low_k, p.t_high_k);
-    for (const double t : chosen) {
+    const FormationModel::Series formation = EntryFormation(entry, file.entries, chosen);
+    if (!formation.reason.empty()) {
+      warnings.push_back("warning: formation properties left empty: " + formation.reason);
+    }
+    for (std::size_t k = 0; k < chosen.size(); ++k) {
+      const double t = chosen[k];
       const ThermoPoint point = EvaluateEntry(entry, t);
       for (const double value : {point.cp_j_per_mol_k, point.s_j_per_mol_k, point.h_j_per_mol,
                                  point.h_minus_h298_j_per_mol, GibbsFunction(point)}) {
@@ -59,7 +64,8 @@ int RunEvalCommand(const EvalOptions& options) {
         highest_k = num_outside == 0 ? t : std::max(highest_k, t);
         ++num_outside;
       }
-      rows.push_back({entry.name, entry.reference_pressure_pa, point, outside});
+      rows.push_back({entry.name, entry.reference_pressure_pa, point, outside,
+                      formation.points[k]});
     }
     if (num_outside > 0) {
       warnings.push_back(fmt::format(

@@ -4,6 +4,7 @@
 #include <iostream>
 #include <memory>
 
+#include "formation/formation.h"
 #include "statmech/species_thermo.h"
 
 namespace sevenfold::cli {
@@ -25,17 +26,29 @@ void SetupTableCommand(CLI::App& app, int& exit_status) {
 int RunTableCommand(const TableOptions& options) {
   TemperatureChoice choice = options.temperatures;
   choice.Resolve(TemperatureChoice::Limit::kEngineRange);
+  // Every species of the files replaces the built-in reference state of its label, also when
+  // --species leaves it out of the table (docs/cli.md).
+  const std::vector<Species> all = LoadSpecies(options.species_files, {});
   const std::vector<Species> species = LoadSpecies(options.species_files, options.species_names);
+  const FormationModel formation(all);
   std::vector<TableRow> rows;
+  std::vector<std::string> warnings;
   for (const Species& one : species) {
     const SpeciesThermo thermo(one);
     const std::vector<double> temperatures =
         choice.For(one.temperatures.low_k, one.temperatures.high_k);
-    for (const ThermoPoint& point : thermo.Tabulate(temperatures)) {
-      rows.push_back({one.name, one.standard_pressure_pa, point, std::nullopt});
+    const FormationModel::Series series = formation.Tabulate(one, thermo, temperatures);
+    const std::vector<ThermoPoint> points = thermo.Tabulate(temperatures);
+    for (std::size_t i = 0; i < points.size(); ++i) {
+      rows.push_back({one.name, one.standard_pressure_pa, points[i], std::nullopt,
+                      series.points[i]});
+    }
+    if (!series.reason.empty()) {
+      warnings.push_back("warning: formation properties left empty: " + series.reason);
     }
   }
   std::cout << FormatTable(rows, options.format);
+  for (const std::string& warning : warnings) std::cerr << warning << "\n";
   return 0;
 }
 

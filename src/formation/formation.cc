@@ -198,12 +198,35 @@ FormationPoint FormationModel::At(const Species& species, const SpeciesThermo& t
     h -= share * point.h_j_per_mol;
     s -= share * point.s_j_per_mol_k;
   }
+  return MakeFormationPoint(t_k, h, s);
+}
+
+FormationPoint MakeFormationPoint(double t_k, double dfh_j_per_mol, double dfs_j_per_mol_k) {
   FormationPoint result;
   result.t_k = t_k;
-  result.dfh_j_per_mol = h;
-  result.dfg_j_per_mol = h - t_k * s;
-  result.log10_kf = -result.dfg_j_per_mol / (kGasConstant * t_k * std::log(10.0));
+  result.dfh_j_per_mol = dfh_j_per_mol;
+  result.dfg_j_per_mol = dfh_j_per_mol - t_k * dfs_j_per_mol_k;
+  // For an element in its reference state dfG is 0 and -0 / x is -0; tables print 0.
+  result.log10_kf =
+      result.dfg_j_per_mol == 0.0 ? 0.0
+                                  : -result.dfg_j_per_mol / (kGasConstant * t_k * std::log(10.0));
   return result;
+}
+
+FormationModel::Series FormationModel::Tabulate(const Species& species,
+                                                const SpeciesThermo& thermo,
+                                                const std::vector<double>& temperatures_k) const {
+  Series series;
+  for (const double t_k : temperatures_k) {
+    try {
+      series.points.push_back(At(species, thermo, t_k));
+    } catch (const Error& error) {
+      // At names the species and the reason; one message per species is enough for callers.
+      series.points.push_back(std::nullopt);
+      if (series.reason.empty()) series.reason = error.what();
+    }
+  }
+  return series;
 }
 
 }  // namespace sevenfold

@@ -5,6 +5,7 @@
 
 #include <map>
 #include <memory>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -39,6 +40,10 @@ struct FormationPoint {
   double log10_kf = 0.0;       // -dfG / (R T ln 10)
 };
 
+// The point at t_k from the formation enthalpy and entropy: dfG = dfH - T dfS, log10 Kf =
+// -dfG / (R T ln 10). The one home of those relations (used for species and fitted entries).
+FormationPoint MakeFormationPoint(double t_k, double dfh_j_per_mol, double dfs_j_per_mol_k);
+
 // Formation properties against the reference states: the built-in ones, each replaced by a
 // species of `user_species` with the same label (the rule in docs/theory.md, section 13).
 class FormationModel {
@@ -52,6 +57,16 @@ class FormationModel {
   // naming the species when an element has no reference state, for an ion, or when t_k lies
   // outside a reference state's range (for graphite: its table; no phase change is modelled).
   FormationPoint At(const Species& species, const SpeciesThermo& thermo, double t_k) const;
+
+  // Formation properties at each of `temperatures_k`: a point where they can be computed, none
+  // where they cannot (no reference state, an ion, outside a reference's range); `reason` holds
+  // the first failure's message (empty when every point was computed). Never throws for those.
+  struct Series {
+    std::vector<std::optional<FormationPoint>> points;
+    std::string reason;
+  };
+  Series Tabulate(const Species& species, const SpeciesThermo& thermo,
+                  const std::vector<double>& temperatures_k) const;
 
   // The reference state in use for `element`, or nullptr.
   const ReferenceState* Reference(const std::string& element) const;

@@ -59,6 +59,26 @@ std::string PressureLabel(double pressure_pa) {
   return fmt::format("{} Pa", pressure_pa);
 }
 
+// The three formation cells: text (fixed width), CSV (empty when unknown) or JSON (null).
+std::string FormationText(const std::optional<FormationPoint>& f) {
+  if (!f) return fmt::format(" {:>10} {:>10} {:>8}", kNoFormationValue, kNoFormationValue,
+                             kNoFormationValue);
+  return fmt::format(" {:>10.3f} {:>10.3f} {:>8.3f}", f->dfh_j_per_mol / 1000.0,
+                     f->dfg_j_per_mol / 1000.0, f->log10_kf);
+}
+
+std::string FormationCsv(const std::optional<FormationPoint>& f) {
+  if (!f) return ",,,";
+  return fmt::format(",{},{},{}", f->dfh_j_per_mol / 1000.0, f->dfg_j_per_mol / 1000.0,
+                     f->log10_kf);
+}
+
+std::string FormationJson(const std::optional<FormationPoint>& f) {
+  if (!f) return ", \"dfH\": null, \"dfG\": null, \"log10Kf\": null";
+  return fmt::format(", \"dfH\": {}, \"dfG\": {}, \"log10Kf\": {}", f->dfh_j_per_mol / 1000.0,
+                     f->dfg_j_per_mol / 1000.0, f->log10_kf);
+}
+
 bool HasRangeColumn(const std::vector<TableRow>& rows) {
   return !rows.empty() && rows.front().outside_range.has_value();
 }
@@ -82,17 +102,19 @@ std::string FormatText(const std::vector<TableRow>& rows) {
       out += fmt::format("{}  (ideal gas, standard pressure {})\n",
                          VisibleControls(row.species, false),
                          PressureLabel(row.standard_pressure_pa));
-      out += fmt::format("{:>10} {:>10} {:>10} {:>11} {:>12} {:>12}\n", "T", "Cp", "S",
-                         "H-H298", "H", "-(G-H298)/T");
-      out += fmt::format("{:>10} {:>10} {:>10} {:>11} {:>12} {:>12}\n", "K", "J/mol/K",
-                         "J/mol/K", "kJ/mol", "kJ/mol", "J/mol/K");
+      out += fmt::format("{:>10} {:>10} {:>10} {:>11} {:>12} {:>12} {:>10} {:>10} {:>8}\n", "T",
+                         "Cp", "S", "H-H298", "H", "-(G-H298)/T", "dfH", "dfG", "log10Kf");
+      out += fmt::format("{:>10} {:>10} {:>10} {:>11} {:>12} {:>12} {:>10} {:>10} {:>8}\n", "K",
+                         "J/mol/K", "J/mol/K", "kJ/mol", "kJ/mol", "J/mol/K", "kJ/mol", "kJ/mol",
+                         "1");
     }
     const ThermoPoint& p = row.point;
     const bool outside = row.outside_range.value_or(false);
     marked = marked || outside;
-    out += fmt::format("{:>10.2f} {:>10.3f} {:>10.3f} {:>11.3f} {:>12.3f} {:>12.3f}{}\n", p.t_k,
-                       p.cp_j_per_mol_k, p.s_j_per_mol_k, p.h_minus_h298_j_per_mol / 1000.0,
-                       p.h_j_per_mol / 1000.0, GibbsFunction(p),
+    out += fmt::format("{:>10.2f} {:>10.3f} {:>10.3f} {:>11.3f} {:>12.3f} {:>12.3f}{}{}\n",
+                       p.t_k, p.cp_j_per_mol_k, p.s_j_per_mol_k,
+                       p.h_minus_h298_j_per_mol / 1000.0, p.h_j_per_mol / 1000.0,
+                       GibbsFunction(p), FormationText(row.formation),
                        outside ? std::string(" ") + kOutsideRangeMarker : std::string());
   }
   footnote();
@@ -105,9 +127,9 @@ std::string FormatCsv(const std::vector<TableRow>& rows) {
                     (range_column ? std::string(",") + kOutsideRangeColumn : std::string()) + "\n";
   for (const TableRow& row : rows) {
     const ThermoPoint& p = row.point;
-    out += fmt::format("{},{},{},{},{},{},{}{}\n", CsvTextCell(row.species), p.t_k, p.cp_j_per_mol_k,
-                       p.s_j_per_mol_k, p.h_minus_h298_j_per_mol / 1000.0,
-                       p.h_j_per_mol / 1000.0, GibbsFunction(p),
+    out += fmt::format("{},{},{},{},{},{},{}{}{}\n", CsvTextCell(row.species), p.t_k,
+                       p.cp_j_per_mol_k, p.s_j_per_mol_k, p.h_minus_h298_j_per_mol / 1000.0,
+                       p.h_j_per_mol / 1000.0, GibbsFunction(p), FormationCsv(row.formation),
                        range_column ? (row.outside_range.value_or(false) ? ",true" : ",false")
                                     : "");
   }
@@ -118,7 +140,8 @@ std::string FormatJson(const std::vector<TableRow>& rows) {
   // {"units": {...}, "species": [{"name": ..., "rows": [{"T": ..., ...}, ...]}, ...]}
   std::string out =
       "{\n  \"units\": {\"T\": \"K\", \"Cp\": \"J/mol/K\", \"S\": \"J/mol/K\", "
-      "\"H-H298\": \"kJ/mol\", \"H\": \"kJ/mol\", \"-(G-H298)/T\": \"J/mol/K\"},\n"
+      "\"H-H298\": \"kJ/mol\", \"H\": \"kJ/mol\", \"-(G-H298)/T\": \"J/mol/K\", "
+      "\"dfH\": \"kJ/mol\", \"dfG\": \"kJ/mol\", \"log10Kf\": \"1\"},\n"
       "  \"species\": [";
   std::string current;
   bool first_species = true;
@@ -135,9 +158,10 @@ std::string FormatJson(const std::vector<TableRow>& rows) {
     const ThermoPoint& p = row.point;
     out += fmt::format(
         "{}\n      {{\"T\": {}, \"Cp\": {}, \"S\": {}, \"H-H298\": {}, \"H\": {}, "
-        "\"-(G-H298)/T\": {}{}}}",
+        "\"-(G-H298)/T\": {}{}{}}}",
         first_row ? "" : ",", p.t_k, p.cp_j_per_mol_k, p.s_j_per_mol_k,
         p.h_minus_h298_j_per_mol / 1000.0, p.h_j_per_mol / 1000.0, GibbsFunction(p),
+        FormationJson(row.formation),
         row.outside_range ? fmt::format(", \"{}\": {}", kOutsideRangeColumn,
                                         *row.outside_range ? "true" : "false")
                           : std::string());

@@ -8,6 +8,7 @@
 #include <string>
 #include <vector>
 
+#include "formation/formation.h"
 #include "statmech/species_thermo.h"
 
 namespace sevenfold {
@@ -23,7 +24,13 @@ struct TableRow {
   // Set for rows evaluated from a fitted entry (eval): whether t_k lies outside the entry's
   // [T_low, T_high], where the polynomial extrapolates. Unset for exact tables.
   std::optional<bool> outside_range;
+  // Formation properties at t_k against the elements' reference states (docs/cli.md); unset
+  // where they cannot be computed: text shows kNoFormationValue, CSV an empty cell, JSON null.
+  std::optional<FormationPoint> formation;
 };
+
+// The text cell of a formation property that could not be computed.
+inline constexpr const char* kNoFormationValue = "n/a";
 
 // The column eval adds to CSV and JSON; text marks such rows with kOutsideRangeMarker and a
 // footnote per species.
@@ -31,9 +38,11 @@ inline constexpr const char* kOutsideRangeColumn = "outside_range";
 inline constexpr const char* kOutsideRangeMarker = "*";
 
 // The CSV header, fixed: species,T/K,Cp/(J/mol/K),S/(J/mol/K),H-H298/(kJ/mol),H/(kJ/mol),
-// -(G-H298)/T/(J/mol/K). CSV and JSON numbers are in shortest round-trip form.
+// -(G-H298)/T/(J/mol/K),dfH/(kJ/mol),dfG/(kJ/mol),log10Kf. CSV and JSON numbers are in shortest
+// round-trip form.
 inline constexpr const char* kTableCsvHeader =
-    "species,T/K,Cp/(J/mol/K),S/(J/mol/K),H-H298/(kJ/mol),H/(kJ/mol),-(G-H298)/T/(J/mol/K)";
+    "species,T/K,Cp/(J/mol/K),S/(J/mol/K),H-H298/(kJ/mol),H/(kJ/mol),-(G-H298)/T/(J/mol/K),"
+    "dfH/(kJ/mol),dfG/(kJ/mol),log10Kf";
 
 // -(G - H298)/T = S - (H - H298)/T, J/(mol K): the Gibbs-energy function of the tables.
 double GibbsFunction(const ThermoPoint& point);
