@@ -19,12 +19,14 @@ echo "machine: $(nproc) cores, load average $(cut -d' ' -f1-3 /proc/loadavg)"
 measure() {
   local label=$1
   shift
-  local log=$work/time.log status=0
-  /usr/bin/time -v -o "$log" "$@" >/dev/null 2>"$work/stderr.log" || status=$?
+  local log=$work/time.log status=0 errors=$work/stderr-${label// /-}.log
+  /usr/bin/time -v -o "$log" "$@" >/dev/null 2>"$errors" || status=$?
   awk -F': ' -v label="$label" -v status="$status" '
     /Elapsed \(wall clock\)/ { n = split($2, p, ":"); wall = (n == 3) ? p[1]*3600 + p[2]*60 + p[3] : p[1]*60 + p[2] }
     /Maximum resident set size/ { rss = $2 }
     END { printf "%-34s exit %d  wall %8.2f s  max RSS %8.1f MB\n", label, status, wall, rss / 1024 }' "$log"
+  # The last lines of its messages, which say why when the exit status is 2.
+  [[ $status -ne 2 ]] || tail -n 3 "$errors" | cut -c1-300
 }
 
 fit_input=$work/generated-$fit_count.yaml
