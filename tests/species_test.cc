@@ -24,6 +24,7 @@
 #include "species/geometry.h"
 #include "species/species_reader.h"
 #include "species/species_schema.h"
+#include "species/text_checks.h"
 #include "fit/fitter.h"
 #include "run_binary.h"
 
@@ -1605,3 +1606,31 @@ TEST_CASE("bad tabulated-cp input is reported at its place", "[species]") {
 }  // namespace
 
 }  // namespace sevenfold
+
+namespace sevenfold {
+namespace {
+
+TEST_CASE("flow nesting deeper than the limit is found before YAML parsing, quotes and comments aside",
+          "[species]") {
+  using detail::kMaxFlowNesting;
+  using detail::TooDeepFlowNesting;
+  const std::string at_limit = std::string(kMaxFlowNesting, '[') + std::string(kMaxFlowNesting, ']');
+  CHECK_FALSE(TooDeepFlowNesting("species: " + at_limit + "\n").has_value());
+  const std::optional<detail::TextPosition> deep =
+      TooDeepFlowNesting("a: 1\nspecies: " + std::string(kMaxFlowNesting + 1, '[') + "\n");
+  REQUIRE(deep.has_value());
+  CHECK(deep->line == 2);
+  CHECK(deep->column == static_cast<int>(std::string("species: ").size()) + kMaxFlowNesting + 1);
+  // Brackets in quoted scalars and comments are text, not nesting.
+  const std::string many(2 * kMaxFlowNesting, '[');
+  CHECK_FALSE(TooDeepFlowNesting("a: '" + many + "'\nb: \"" + many + "\"\n# " + many + "\n"));
+  CHECK_FALSE(TooDeepFlowNesting("a: 'it''s " + many + "'\nb: \"\\\" " + many + "\"\n"));
+  // The reader refuses such a file with its location, before yaml-cpp sees it.
+  REQUIRE_THROWS_WITH(
+      ReadSpeciesText("sevenfold-species: 2\nspecies: " + std::string(100000, '[') + "\n", "deep.yaml"),
+      Catch::Contains("deep.yaml:2:74: flow collections ('[' or '{') nested deeper than 64 levels"));
+}
+
+}  // namespace
+}  // namespace sevenfold
+

@@ -334,6 +334,14 @@ bool FileParser::Parse(std::vector<NameRecord>* names,
                                        : bad->Describe()));
     return false;
   }
+  if (const std::optional<TextPosition> deep = TooDeepFlowNesting(text_)) {
+    const SourceLocation where{file_name_, deep->line, deep->column};
+    problems_->Add(file_index_, deep->line, deep->column,
+                   where.ToString() + fmt::format(": flow collections ('[' or '{{') nested deeper "
+                                                  "than {} levels; expected at most {}",
+                                                  kMaxFlowNesting, kMaxFlowNesting));
+    return false;
+  }
   // yaml-cpp's Load silently keeps the first document only; its LoadAll loops forever on some
   // inputs that Load reads (found by fuzzing, docs/robustness.md). So a second document is
   // found from the text: a "---" marker after content, or content after a "..." end marker.

@@ -38,4 +38,59 @@ int SecondDocumentLine(const std::string& text) {
   return 0;
 }
 
+std::optional<TextPosition> TooDeepFlowNesting(const std::string& text) {
+  enum class State { kPlain, kSingleQuoted, kDoubleQuoted, kComment };
+  State state = State::kPlain;
+  int depth = 0, line = 1, column = 0;
+  char previous = '\n';
+  for (std::size_t i = 0; i < text.size(); ++i) {
+    const char c = text[i];
+    ++column;
+    if (c == '\n') {
+      ++line;
+      column = 0;
+      if (state == State::kComment) state = State::kPlain;
+      previous = c;
+      continue;
+    }
+    switch (state) {
+      case State::kComment:
+        break;
+      case State::kSingleQuoted:
+        if (c == '\'') {
+          if (i + 1 < text.size() && text[i + 1] == '\'') {
+            ++i;  // '' is a quote inside the scalar
+            ++column;
+          } else {
+            state = State::kPlain;
+          }
+        }
+        break;
+      case State::kDoubleQuoted:
+        if (c == '\\') {
+          ++i;  // an escape: the next character is part of the scalar
+          ++column;
+        } else if (c == '"') {
+          state = State::kPlain;
+        }
+        break;
+      case State::kPlain:
+        if (c == '#' && (previous == ' ' || previous == '\t' || previous == '\n')) {
+          state = State::kComment;
+        } else if (c == '\'') {
+          state = State::kSingleQuoted;
+        } else if (c == '"') {
+          state = State::kDoubleQuoted;
+        } else if (c == '[' || c == '{') {
+          if (++depth > kMaxFlowNesting) return TextPosition{line, column};
+        } else if ((c == ']' || c == '}') && depth > 0) {
+          --depth;
+        }
+        break;
+    }
+    previous = c;
+  }
+  return std::nullopt;
+}
+
 }  // namespace sevenfold::detail
